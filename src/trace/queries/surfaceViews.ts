@@ -1,0 +1,255 @@
+/**
+ * Surface views: for each receiver, the fraction of its (cosine-weighted) view that lands on each
+ * patch, on the ground and on the sky, so the audit can sum longwave εσT⁴ and reflected shortwave
+ * from the surroundings without re-tracing.
+ *
+ * Receivers and directions:
+ * - `directions: 'normal'` (patches): one view per receiver, the cosine-weighted hemisphere around
+ *   its own normal; the origin is offset `normalOffsetM` along the normal.
+ * - `directions: 'six'` (sensors): six views per receiver, in the order of `SIX_DIRECTIONS`
+ *   (up, down, east, south, west, north): each is the cosine-weighted hemisphere of a small plane
+ *   facing that way, as the six-directional MRT method needs (VDI 3787 Part 2; Thorsson et al. 2007).
+ *
+ * Method: `samplesPerDirection` cosine-weighted directions on a jittered side × side grid
+ * (sampling.ts), traced with closest-hit rays. A hit triangle maps to its patch through the
+ * caller's `trianglePatch` (per ORIGINAL triangle index; −1 = geometry that is no patch, counted in
+ * `otherFraction`). A ray that meets the ground plane first, or leaves the model downward, counts as
+ * ground; one that leaves upward (d_z >= 0) as sky (groundPlane.ts). Each sample weighs 1/N, so
+ * sky + ground + other + Σ patches = 1 per row exactly (up to float32 rounding of the stored values).
+ *
+ * Consistency with skyVisibility: skyFraction here and skyViewFactor there estimate the same
+ * integral (the cosine-weighted visible sky of the same plane) with independent samples; they agree
+ * within the sampling error of both (checked in the tests), and both are exact in an open field.
+ *
+ * Accuracy with the default 1024 samples per direction: standard error below about 0.003 on any
+ * fraction near a sharp edge (jittered stratification); the coaxial-disc test checks ±0.01.
+ *
+ * Output: CSR-like typed arrays, one row per (receiver, direction), row r = (i − start)·D + d:
+ * entries rowStart[r] .. rowStart[r+1]−1 of patchIndex (ascending) and fraction.
+ */
+import type { BvhData } from '../bvh/build.ts';
+import { intersectClosest, makeClosestHit } from '../bvh/query.ts';
+import { InputError } from '../../physics/errors.ts';
+import { createRandomState, DEFAULT_SEED, nextFloat, seedRandom } from '../random.ts';
+import { buildFrame, frameToWorld, sampleCosineHemisphere } from '../sampling.ts';
+import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
+import { requireMatchingTriples, requireNonNegative, requireRange, requireSquareCount, requireTriples } from './inputChecks.ts';
+import { DEFAULT_NORMAL_OFFSET_M, DEFAULT_T_MIN_M } from './sunVisibility.ts';
+
+/** Default samples per receiver direction (a 32 × 32 jittered grid). */
+export const DEFAULT_VIEW_SAMPLES = 1024;
+/** Substream id of this query in random.ts. */
+export const SURFACE_VIEWS_SUBSTREAM = 2;
+
+/** The six directions of the MRT method, xyz each: up, down, east, south, west, north. */
+export const SIX_DIRECTIONS: readonly number[] = Object.freeze([0, 0, 1, 0, 0, -1, 1, 0, 0, 0, -1, 0, -1, 0, 0, 0, 1, 0]);
+/** Names of `SIX_DIRECTIONS`, in order. */
+export const SIX_DIRECTION_NAMES = ['up', 'down', 'east', 'south', 'west', 'north'] as const;
+
+export type ViewDirections = 'normal' | 'six';
+
+export interface SurfaceViewsInput {
+  /** xyz per receiver [m]. */
+  points: Float32Array | Float64Array;
+  /** Unit normal per receiver; required for `directions: 'normal'`. */
+  normals?: Float32Array | Float64Array | undefined;
+  /** 'normal' (default when normals are given) or 'six' (default otherwise). */
+  directions?: ViewDirections | undefined;
+  /** Patch index per ORIGINAL triangle of the BVH, or −1 for geometry that is no patch. */
+  trianglePatch: Int32Array;
+  /** Number of patches (patch indices are < this). */
+  patchCount: number;
+  /** Samples per receiver direction, a perfect square (default 1024). */
+  samplesPerDirection?: number | undefined;
+  ground?: GroundPlaneInput | null | undefined;
+  /** Generator seed (default random.ts DEFAULT_SEED). */
+  seed?: number | undefined;
+  /** Origin offset along the normal [m] (default 1e-3; 'normal' mode). */
+  normalOffsetM?: number | undefined;
+  /** Nearest accepted hit [m] (default 1e-4). */
+  tMinM?: number | undefined;
+}
+
+export interface SurfaceViewsResult {
+  /** Views per receiver: 1 ('normal') or 6 ('six'). */
+  directionsPerReceiver: number;
+  /** rows + 1 offsets into patchIndex / fraction. */
+  rowStart: Uint32Array;
+  /** Patch seen, ascending within a row. */
+  patchIndex: Uint32Array;
+  /** Fraction of the row's view on that patch [-]. */
+  fraction: Float32Array;
+  /** Per row: fraction on open sky [-]. */
+  skyFraction: Float32Array;
+  /** Per row: fraction on the ground (plane, or beyond the model below the horizon) [-]. */
+  groundFraction: Float32Array;
+  /** Per row: fraction on triangles with no patch (trianglePatch −1) [-]. */
+  otherFraction: Float32Array;
+}
+
+export function surfaceViewsReceiverCount(input: SurfaceViewsInput): number {
+  return requireTriples(input.points, 'surfaceViews points');
+}
+
+/** Views per receiver for an input. */
+export function surfaceViewsDirections(input: SurfaceViewsInput): number {
+  return resolveMode(input) === 'six' ? 6 : 1;
+}
+
+function resolveMode(input: SurfaceViewsInput): ViewDirections {
+  const mode = input.directions ?? (input.normals !== undefined ? 'normal' : 'six');
+  if (mode !== 'normal' && mode !== 'six') {
+    throw new InputError({ problem: 'unknown view mode', place: 'surfaceViews directions', expected: '"normal" or "six"', value: mode });
+  }
+  if (mode === 'normal' && input.normals === undefined) {
+    throw new InputError({ problem: 'normals missing', place: 'surfaceViews normals', expected: 'a unit normal per receiver for directions "normal"' });
+  }
+  return mode;
+}
+
+const _rng = createRandomState();
+const _dir = new Float64Array(3);
+const _local = new Float64Array(3);
+const _frame = new Float64Array(9);
+const _hit = makeClosestHit();
+
+/**
+ * Surface views of receivers [start, end).
+ * @param bvh Scene BVH
+ * @param input Receivers, triangle → patch map and sampling settings
+ * @param start First receiver (default 0)
+ * @param end One past the last receiver (default all)
+ */
+export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, end = -1): SurfaceViewsResult {
+  const count = requireTriples(input.points, 'surfaceViews points');
+  if (end < 0) end = count;
+  requireRange(start, end, count, 'surfaceViews start/end');
+  requireMatchingTriples(input.normals, count, 'surfaceViews normals');
+  const mode = resolveMode(input);
+  const D = mode === 'six' ? 6 : 1;
+  const side = requireSquareCount(input.samplesPerDirection ?? DEFAULT_VIEW_SAMPLES, 'surfaceViews samplesPerDirection');
+  const N = side * side;
+  const offset = input.normalOffsetM ?? DEFAULT_NORMAL_OFFSET_M;
+  const tMin = input.tMinM ?? DEFAULT_T_MIN_M;
+  requireNonNegative(offset, 'surfaceViews normalOffsetM', '[m]');
+  requireNonNegative(tMin, 'surfaceViews tMinM', '[m]');
+  const patchCount = input.patchCount;
+  if (!Number.isInteger(patchCount) || patchCount < 0) {
+    throw new InputError({ problem: 'not a non-negative integer', place: 'surfaceViews patchCount', expected: 'the number of patches', value: patchCount });
+  }
+  const triPatch = input.trianglePatch;
+  if (triPatch.length !== bvh.triangleCount) {
+    throw new InputError({ problem: 'length does not match the BVH triangle count', place: 'surfaceViews trianglePatch', expected: `${bvh.triangleCount} entries`, value: triPatch.length });
+  }
+  for (let t = 0; t < triPatch.length; t++) {
+    const p = triPatch[t]!;
+    if (p < -1 || p >= patchCount) {
+      throw new InputError({ problem: 'patch index out of range', place: `surfaceViews trianglePatch[${t}]`, expected: `-1 or an index below ${patchCount}`, value: p });
+    }
+  }
+  const seed = input.seed ?? DEFAULT_SEED;
+  const gz = groundZOf(input.ground);
+  const empty = bvh.triangleCount === 0;
+  const rows = (end - start) * D;
+
+  const rowStart = new Uint32Array(rows + 1);
+  const skyFraction = new Float32Array(rows);
+  const groundFraction = new Float32Array(rows);
+  const otherFraction = new Float32Array(rows);
+  let cap = Math.max(16, rows * 8);
+  let patchIndex = new Uint32Array(cap);
+  let fraction = new Float32Array(cap);
+  let nnz = 0;
+
+  // Per-call scratch: hit counts per patch and the list of patches touched in the current row.
+  const counts = new Uint32Array(patchCount);
+  const touched = new Uint32Array(Math.min(patchCount, N) + 1);
+
+  const pts = input.points;
+  const nrm = input.normals;
+  const rng = _rng, dir = _dir, local = _local, frame = _frame, hit = _hit;
+  const invSide = 1 / side;
+  const invN = 1 / N;
+  for (let i = start; i < end; i++) {
+    seedRandom(rng, seed, i, SURFACE_VIEWS_SUBSTREAM);
+    let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
+    if (mode === 'normal') {
+      ox += nrm![i * 3]! * offset;
+      oy += nrm![i * 3 + 1]! * offset;
+      oz += nrm![i * 3 + 2]! * offset;
+    }
+    for (let d = 0; d < D; d++) {
+      const r = (i - start) * D + d;
+      if (mode === 'normal') buildFrame(nrm![i * 3]!, nrm![i * 3 + 1]!, nrm![i * 3 + 2]!, frame);
+      else buildFrame(SIX_DIRECTIONS[d * 3]!, SIX_DIRECTIONS[d * 3 + 1]!, SIX_DIRECTIONS[d * 3 + 2]!, frame);
+      let nSky = 0, nGround = 0, nOther = 0, nTouched = 0;
+      for (let a = 0; a < side; a++) {
+        for (let b = 0; b < side; b++) {
+          const u1 = (a + nextFloat(rng)) * invSide;
+          const u2 = (b + nextFloat(rng)) * invSide;
+          sampleCosineHemisphere(u1, u2, local);
+          frameToWorld(frame, local[0]!, local[1]!, local[2]!, dir);
+          const dx = dir[0]!, dy = dir[1]!, dz = dir[2]!;
+          const tG = groundCrossingT(gz, oz, dz);
+          if (!empty && intersectClosest(bvh, ox, oy, oz, dx, dy, dz, tMin, tG, hit)) {
+            const p = triPatch[hit.triangle]!;
+            if (p < 0) nOther++;
+            else {
+              if (counts[p] === 0) touched[nTouched++] = p;
+              counts[p]!++;
+            }
+          } else if (tG !== Infinity || dz < 0) nGround++;
+          else nSky++;
+        }
+      }
+      skyFraction[r] = nSky * invN;
+      groundFraction[r] = nGround * invN;
+      otherFraction[r] = nOther * invN;
+      sortAscending(touched, nTouched);
+      if (nnz + nTouched > cap) {
+        while (nnz + nTouched > cap) cap *= 2;
+        const pi = new Uint32Array(cap);
+        pi.set(patchIndex.subarray(0, nnz));
+        patchIndex = pi;
+        const fr = new Float32Array(cap);
+        fr.set(fraction.subarray(0, nnz));
+        fraction = fr;
+      }
+      rowStart[r] = nnz;
+      for (let j = 0; j < nTouched; j++) {
+        const p = touched[j]!;
+        patchIndex[nnz] = p;
+        fraction[nnz] = counts[p]! * invN;
+        counts[p] = 0;
+        nnz++;
+      }
+    }
+  }
+  rowStart[rows] = nnz;
+  return {
+    directionsPerReceiver: D,
+    rowStart,
+    patchIndex: patchIndex.slice(0, nnz),
+    fraction: fraction.slice(0, nnz),
+    skyFraction,
+    groundFraction,
+    otherFraction,
+  };
+}
+
+/** Sorts the first n entries ascending without allocating (insertion sort; rows touch few patches). */
+function sortAscending(a: Uint32Array, n: number): void {
+  if (n > 64) {
+    a.subarray(0, n).sort();
+    return;
+  }
+  for (let i = 1; i < n; i++) {
+    const v = a[i]!;
+    let j = i - 1;
+    while (j >= 0 && a[j]! > v) {
+      a[j + 1] = a[j]!;
+      j--;
+    }
+    a[j + 1] = v;
+  }
+}
