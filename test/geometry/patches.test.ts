@@ -54,7 +54,7 @@ describe('buildPatches', () => {
     // Centroids on the 1 m grid: (i + ½, 0, j + ½).
     const cents = new Set<string>();
     for (let i = 0; i < p.count; i++) cents.add([0, 1, 2].map((c) => p.centroids[i * 3 + c]!.toFixed(6)).join(','));
-    for (let x = 0; x < 10; x++) for (let z = 0; z < 3; z++) expect(cents.has(`${x + 0.5}.000000,0.000000,${z + 0.5}.000000`.replace(/\.5\.0+/g, '.500000'))).toBe(true);
+    for (let x = 0; x < 10; x++) for (let z = 0; z < 3; z++) expect(cents.has(`${(x + 0.5).toFixed(6)},0.000000,${(z + 0.5).toFixed(6)}`)).toBe(true);
     expect(p.ids[0]).toBe('wall-0');
     expect(p.ids[29]).toBe('wall-29');
     expect(new Set(p.ids).size).toBe(30);

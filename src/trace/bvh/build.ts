@@ -2,7 +2,9 @@
  * BVH build: binned surface-area-heuristic (SAH) split, iterative, on typed-array scratch.
  * The node and triangle layout is in `layout.ts`.
  *
- * Method: each node bins its triangles' centroids into `BINS` bins on all three axes, sweeps the
+ * Method: each node bins its triangles' centroids into `BINS` bins on all three axes (only the
+ * longest centroid axis for nodes above `ONE_AXIS_ABOVE` triangles, ≈ 2 % more node visits, a third
+ * of the binning work), sweeps the
  * bins for the cheapest SAH split (cost = traversal + sum over children of area × count / parent
  * area) and partitions the triangle order in place; child boxes come straight from the bins, child
  * centroid boxes from the partition pass, so each level reads each triangle twice. A node becomes a
@@ -45,6 +47,8 @@ export interface BuildBvhOptions {
 const BINS = 16;
 /** SAH cost of one node traversal relative to one triangle test. */
 const TRAVERSAL_COST = 1.0;
+/** Nodes with more triangles than this bin only their longest centroid axis. */
+const ONE_AXIS_ABOVE = 512;
 
 function allocBuffer(bytes: number, shared: boolean): ArrayBuffer | SharedArrayBuffer {
   return shared ? new SharedArrayBuffer(bytes) : new ArrayBuffer(bytes);
@@ -121,11 +125,15 @@ export function buildBvh(
     if (ccx > cmaxx) cmaxx = ccx; if (ccy > cmaxy) cmaxy = ccy; if (ccz > cmaxz) cmaxz = ccz;
   }
 
-  const maxNodes = n > 0 ? 2 * n - 1 : 1;
+  const maxNodes = n > 0 ? 2 * n : 2;
   const nf = new Float32Array(maxNodes * NODE_WORDS);
   const ni = new Int32Array(nf.buffer);
   nf[0] = rminx; nf[1] = rminy; nf[2] = rminz; nf[3] = rmaxx; nf[4] = rmaxy; nf[5] = rmaxz;
-  let nodeCount = 1;
+  // Node 1 stays an empty leaf so that every child pair starts at an even index: a pair is then
+  // 64 bytes from a 64-byte multiple of the buffer start, which keeps it in as few cache lines as
+  // the buffer's own alignment allows.
+  nf[8] = Infinity; nf[9] = Infinity; nf[10] = Infinity; nf[11] = -Infinity; nf[12] = -Infinity; nf[13] = -Infinity;
+  let nodeCount = 2;
   let maxDepth = 0;
 
   // Task stack: node, start, end, depth (ints) + centroid box (floats).
@@ -154,9 +162,19 @@ export function buildBvh(
       const sx = ex > 0 ? (BINS * (1 - 1e-6)) / ex : 0;
       const sy = ey > 0 ? (BINS * (1 - 1e-6)) / ey : 0;
       const sz = ez > 0 ? (BINS * (1 - 1e-6)) / ez : 0;
-      binTriangles(order, cen, tb, start, end, cminx, cminy, cminz, sx, sy, sz, binCount, binBox);
+      let sweepX = ex, sweepY = ey, sweepZ = ez;
+      if (count > ONE_AXIS_ABOVE) {
+        // large node: bin only the axis of largest centroid extent (a third of the work)
+        const axis = ex >= ey ? (ex >= ez ? 0 : 2) : ey >= ez ? 1 : 2;
+        if (axis !== 0) sweepX = 0;
+        if (axis !== 1) sweepY = 0;
+        if (axis !== 2) sweepZ = 0;
+        binTrianglesOneAxis(order, cen, tb, start, end, axis, axis === 0 ? cminx : axis === 1 ? cminy : cminz, axis === 0 ? sx : axis === 1 ? sy : sz, binCount, binBox);
+      } else {
+        binTriangles(order, cen, tb, start, end, cminx, cminy, cminz, sx, sy, sz, binCount, binBox);
+      }
       // --- SAH sweep per axis ---
-      bestCost = sweepBins(binCount, binBox, ex, ey, ez, rightArea, rightCount, splitOut);
+      bestCost = sweepBins(binCount, binBox, sweepX, sweepY, sweepZ, rightArea, rightCount, splitOut);
       splitAxis = splitOut[0] as number; splitBin = splitOut[1] as number;
       const pdx = (nf[no + 3] as number) - (nf[no] as number);
       const pdy = (nf[no + 4] as number) - (nf[no + 1] as number);
@@ -242,7 +260,7 @@ export function buildBvh(
   const nodeInts = new Int32Array(nodeBuf);
   for (let k = 0; k < nodeCount; k++) {
     const o = k * NODE_WORDS;
-    if (n === 0) {
+    if (n === 0 || k === 1) {
       nodes[o] = Infinity; nodes[o + 1] = Infinity; nodes[o + 2] = Infinity;
       nodes[o + 3] = -Infinity; nodes[o + 4] = -Infinity; nodes[o + 5] = -Infinity;
     } else {
@@ -434,4 +452,34 @@ function childBoxesFromBins(binCount: Int32Array, binBox: Float64Array, base: nu
           if ((binBox[o + 5] as number) > z1) z1 = binBox[o + 5] as number;
         }
         nf[ro] = x0; nf[ro + 1] = y0; nf[ro + 2] = z0; nf[ro + 3] = x1; nf[ro + 4] = y1; nf[ro + 5] = z1;
+}
+
+/** Bins triangles order[start..end) by centroid on one axis (bins axis*BINS ..). */
+function binTrianglesOneAxis(
+  order: Uint32Array, cen: Float32Array, tb: Float32Array, start: number, end: number,
+  axis: number, cmin: number, sc: number, binCount: Int32Array, binBox: Float64Array,
+): void {
+  binCount.fill(0);
+  const base = axis * BINS;
+  for (let i = start; i < end; i++) {
+    const t = order[i] as number;
+    const b6 = t * 6;
+    let k = ((cen[t * 3 + axis] as number) - cmin) * sc | 0;
+    if (k >= BINS) k = BINS - 1;
+    k += base;
+    const o = k * 6;
+    const mnx = tb[b6] as number, mny = tb[b6 + 1] as number, mnz = tb[b6 + 2] as number;
+    const mxx = tb[b6 + 3] as number, mxy = tb[b6 + 4] as number, mxz = tb[b6 + 5] as number;
+    if ((binCount[k] as number) === 0) {
+      binBox[o] = mnx; binBox[o + 1] = mny; binBox[o + 2] = mnz; binBox[o + 3] = mxx; binBox[o + 4] = mxy; binBox[o + 5] = mxz;
+    } else {
+      if (mnx < (binBox[o] as number)) binBox[o] = mnx;
+      if (mny < (binBox[o + 1] as number)) binBox[o + 1] = mny;
+      if (mnz < (binBox[o + 2] as number)) binBox[o + 2] = mnz;
+      if (mxx > (binBox[o + 3] as number)) binBox[o + 3] = mxx;
+      if (mxy > (binBox[o + 4] as number)) binBox[o + 4] = mxy;
+      if (mxz > (binBox[o + 5] as number)) binBox[o + 5] = mxz;
+    }
+    binCount[k] = (binCount[k] as number) + 1;
+  }
 }

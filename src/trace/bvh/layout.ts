@@ -2,8 +2,10 @@
  * The BVH's flat memory layout, declared once, with tiny accessors (STYLE §5). The traversal kernels
  * in `query.ts` inline these reads by hand for speed; everything else should use the accessors.
  *
- * Nodes: 32 bytes each (`NODE_WORDS` = 8 words of 4 bytes), node 0 is the root. Two views share
- * one buffer: `nodes` (Float32Array) and `nodeInts` (Int32Array).
+ * Nodes: 32 bytes each (`NODE_WORDS` = 8 words of 4 bytes), node 0 is the root, node 1 is an unused
+ * empty leaf (padding so that every child pair starts at an even index, i.e. a 64-byte pair is
+ * 64-byte aligned relative to the buffer). Two views share one buffer: `nodes` (Float32Array) and
+ * `nodeInts` (Int32Array).
  *
  * | word | view      | interior node                          | leaf node                        |
  * | ---- | --------- | -------------------------------------- | -------------------------------- |

@@ -17,16 +17,18 @@
  */
 import type { BvhData } from '../bvh/build.ts';
 import { createTraceApi, type TraceChunkResult, type TraceTask } from '../api.ts';
-import { sunVisibilityReceiverCount, type SunVisibilityInput } from '../queries/sunVisibility.ts';
+import { sunVisibility, sunVisibilityReceiverCount, type SunVisibilityInput } from '../queries/sunVisibility.ts';
 import {
   DEFAULT_GROUND_SAMPLES,
   DEFAULT_SKY_SAMPLES_PER_PATCH,
+  skyVisibility,
   skyVisibilityReceiverCount,
   type SkyVisibilityInput,
   type SkyVisibilityResult,
 } from '../queries/skyVisibility.ts';
 import {
   DEFAULT_VIEW_SAMPLES,
+  surfaceViews,
   surfaceViewsDirections,
   surfaceViewsReceiverCount,
   type SurfaceViewsInput,
@@ -47,6 +49,8 @@ interface Slot {
   handle: WorkerHandle | null;
   started: Promise<WorkerHandle> | null;
   bvhIds: Set<number>;
+  /** Jobs currently using this worker (the host process is kept alive while > 0). */
+  busy: number;
 }
 
 interface Scheduler {
@@ -63,7 +67,7 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
   if (!Number.isInteger(workerCount) || workerCount < 1) {
     throw new InputError({ problem: 'bad worker count', place: 'trace pool workers', expected: 'an integer >= 1', value: workerCount });
   }
-  const slots: Slot[] = Array.from({ length: workerCount }, () => ({ handle: null, started: null, bvhIds: new Set<number>() }));
+  const slots: Slot[] = Array.from({ length: workerCount }, () => ({ handle: null, started: null, bvhIds: new Set<number>(), busy: 0 }));
   const bvhIds = new WeakMap<BvhData, { id: number; sendable: BvhData }>();
   let nextBvhId = 1;
   let nextTaskId = 1;
@@ -74,6 +78,7 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
     slot.handle = null;
     slot.started = null;
     slot.bvhIds.clear();
+    slot.busy = 0;
     if (h !== null) h.terminate();
   }
 
@@ -140,10 +145,14 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
             onProgress(done, total);
           }
         };
+        const holding = new Set<Slot>();
         const finish = () => {
           signal?.removeEventListener('abort', onAbort);
           for (const s of used) {
-            s.handle?.hold?.(false);
+            if (holding.has(s) && s.handle !== null) {
+              s.busy = Math.max(0, s.busy - 1);
+              if (s.busy === 0) s.handle.hold?.(false);
+            }
             s.handle?.api.dropTask(taskId).catch(() => undefined);
           }
         };
@@ -167,7 +176,8 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
           try {
             h = await start(slot);
             if (settled) return;
-            h.hold?.(true);
+            if (slot.busy++ === 0) h.hold?.(true);
+            holding.add(slot);
             if (!slot.bvhIds.has(bvhId)) {
               await Promise.race([h.api.putBvh(bvhId, sendable), h.failed]);
               slot.bvhIds.add(bvhId);
@@ -223,16 +233,19 @@ function executorOn(scheduler: Scheduler): TraceExecutor {
     workerCount: scheduler.workerCount,
     async sunVisibility(bvh, input, opts = {}): Promise<Uint8Array> {
       const total = sunVisibilityReceiverCount(input);
+      sunVisibility(bvh, input, 0, 0); // checks the whole input here, so bad input throws an InputError at once
       const chunks = await scheduler.run({ kind: 'sunVisibility', bvhId: 0, input }, bvh, total, raysPerSunReceiver(input), opts);
       return mergeSunVisibility(chunks as Extract<TraceChunkResult, { kind: 'sunVisibility' }>[], total, input.sunDirections.length / 3);
     },
     async skyVisibility(bvh, input, opts = {}): Promise<SkyVisibilityResult> {
       const total = skyVisibilityReceiverCount(input);
+      skyVisibility(bvh, input, 0, 0);
       const chunks = await scheduler.run({ kind: 'skyVisibility', bvhId: 0, input }, bvh, total, raysPerSkyReceiver(input), opts);
       return mergeSkyVisibility(chunks as Extract<TraceChunkResult, { kind: 'skyVisibility' }>[], total);
     },
     async surfaceViews(bvh, input, opts = {}): Promise<SurfaceViewsResult> {
       const total = surfaceViewsReceiverCount(input);
+      surfaceViews(bvh, input, 0, 0);
       const D = surfaceViewsDirections(input);
       const rays = D * (input.samplesPerDirection ?? DEFAULT_VIEW_SAMPLES);
       const chunks = await scheduler.run({ kind: 'surfaceViews', bvhId: 0, input }, bvh, total, rays, opts);

@@ -207,6 +207,7 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
       otherFraction[r] = nOther * invN;
       sortAscending(touched, nTouched);
       if (nnz + nTouched > cap) {
+        // amortised doubling, once in a while per row (never per ray)
         while (nnz + nTouched > cap) cap *= 2;
         const pi = new Uint32Array(cap);
         pi.set(patchIndex.subarray(0, nnz));

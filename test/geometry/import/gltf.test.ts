@@ -97,6 +97,20 @@ describe('importGltf: structure', () => {
     near(tri(1), [[0, 0, 0], [0, 0, -2], [0, 2, 0]]);
   });
 
+  it('a mirroring node (negative scale) keeps the outward normal by reversing the winding', async () => {
+    const g = new RawGltf();
+    const pos = g.positions([0, 0, 0, 1, 0, 0, 0, 1, 0]); // faces glTF +z
+    const mesh = g.mesh([{ attributes: { POSITION: pos } }]);
+    g.json.scenes.push({ nodes: [g.node({ name: 'plain', mesh }), g.node({ name: 'mirrored', mesh, scale: [-1, 1, 1] })] });
+    const scene = await importGltf(g.glb(), 'mirror.glb', { upAxis: 'z' });
+    const p = scene.positions, ix = scene.indices;
+    for (let t = 0; t < 2; t++) {
+      const a = ix[t * 3]! * 3, b = ix[t * 3 + 1]! * 3, c = ix[t * 3 + 2]! * 3;
+      const nz = (p[b]! - p[a]!) * (p[c + 1]! - p[a + 1]!) - (p[b + 1]! - p[a + 1]!) * (p[c]! - p[a]!);
+      expect(nz).toBeGreaterThan(0); // mirrored in x, the face still points +z
+    }
+  });
+
   it('names surfaces node name → mesh name → mesh<i>, unique with #n', async () => {
     const g = new RawGltf();
     const pos = g.positions([0, 0, 0, 1, 0, 0, 0, 1, 0]);

@@ -1,0 +1,190 @@
+/**
+ * The project as the user edits it: the JSON document of DESIGN §4 (what Save writes and Open
+ * reads), changed only through the pure reducers below. It is validated with the audit's own
+ * `validateProject` before a run, so the viewer and the command line accept the same files.
+ */
+import { validateProject, type Project } from '../../audit/project.ts';
+import { InputError } from '../../physics/errors.ts';
+import { zoneOffsetMinutes } from '../../physics/time.ts';
+
+export type Posture = 'standing' | 'seated';
+
+export interface ZoneDoc {
+  name: string;
+  polygon?: [number, number][];
+  mesh?: string;
+  floorZ?: number;
+  sensorHeightM?: number;
+  spacingM?: number;
+  posture?: Posture;
+}
+
+export interface ClearSkyWeatherDoc {
+  source: 'clear-sky';
+  airTempC: number | { min: number; max: number } | number[];
+  relativeHumidityPct?: number;
+  windMs?: number;
+  linkeTurbidity?: number;
+}
+
+export interface ProjectDoc {
+  sunfacet: 1;
+  name?: string;
+  notes?: string;
+  site: { latitudeDeg: number; longitudeDeg: number; elevationM?: number; timeZone: string; northDeg?: number };
+  model: { file: string; upAxis?: 'y' | 'z'; unitsPerMeter?: number };
+  materials?: Record<string, unknown>;
+  defaultMaterial?: unknown;
+  ground?: { material?: unknown; z?: number };
+  zones?: ZoneDoc[];
+  period: { start: string; end: string; stepMinutes?: number } | 'year';
+  weather: ClearSkyWeatherDoc | { source: 'file'; file: string };
+  sampling?: Record<string, number>;
+}
+
+/** Result of checking a document: the validated project, or the readable message. */
+export type DocCheck = { ok: true; project: Project } | { ok: false; message: string };
+
+/** Parses project JSON text into a document; the InputError names the file and the key. */
+export function parseProjectDoc(text: string, file: string): ProjectDoc {
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    throw new InputError({ file, place: 'JSON', problem: `not valid JSON (${e instanceof Error ? e.message : String(e)})`, expected: 'a Sunfacet project file' });
+  }
+  validateProject(raw, file); // throws with the key path on a bad file
+  return raw as ProjectDoc;
+}
+
+export function checkDoc(doc: ProjectDoc, file = 'project.json'): DocCheck {
+  try {
+    return { ok: true, project: validateProject(structuredClone(doc), file) };
+  } catch (e) {
+    return { ok: false, message: e instanceof Error ? e.message : String(e) };
+  }
+}
+
+export function setName(doc: ProjectDoc, name: string): ProjectDoc {
+  return { ...doc, name };
+}
+
+export function setSite(doc: ProjectDoc, patch: Partial<ProjectDoc['site']>): ProjectDoc {
+  return { ...doc, site: { ...doc.site, ...patch } };
+}
+
+export function setModel(doc: ProjectDoc, patch: Partial<ProjectDoc['model']>): ProjectDoc {
+  return { ...doc, model: { ...doc.model, ...patch } };
+}
+
+/**
+ * The preset assigned to a surface: its own name's entry first, then its model material's entry,
+ * then the default. `explicit` tells whether an entry of `materials` decided it.
+ */
+export function assignedPreset(doc: ProjectDoc, surfaceName: string, materialName: string): { preset: string; key: string | null } {
+  const m = doc.materials ?? {};
+  const presetOf = (v: unknown): string | null =>
+    typeof v === 'string' ? v : v !== null && typeof v === 'object' && typeof (v as { preset?: unknown }).preset === 'string' ? (v as { preset: string }).preset : v !== undefined ? 'custom' : null;
+  const own = presetOf(m[surfaceName]);
+  if (own !== null) return { preset: own, key: surfaceName };
+  if (materialName !== '') {
+    const byMat = presetOf(m[materialName]);
+    if (byMat !== null) return { preset: byMat, key: materialName };
+  }
+  return { preset: presetOf(doc.defaultMaterial) ?? 'concrete-light', key: null };
+}
+
+/** Assigns `presetId` to a surface or material name (null removes the entry). */
+export function setMaterial(doc: ProjectDoc, key: string, presetId: string | null): ProjectDoc {
+  const materials = { ...(doc.materials ?? {}) };
+  if (presetId === null) delete materials[key];
+  else materials[key] = presetId;
+  return { ...doc, materials };
+}
+
+export function setDefaultMaterial(doc: ProjectDoc, presetId: string): ProjectDoc {
+  return { ...doc, defaultMaterial: presetId };
+}
+
+/** A zone name not yet used: "zone 1", "zone 2", ... */
+export function nextZoneName(doc: ProjectDoc, stem = 'zone'): string {
+  const used = new Set((doc.zones ?? []).map((z) => z.name));
+  for (let i = 1; ; i++) if (!used.has(`${stem} ${i}`)) return `${stem} ${i}`;
+}
+
+export function addZone(doc: ProjectDoc, zone: ZoneDoc): ProjectDoc {
+  const zones = [...(doc.zones ?? [])];
+  const name = zones.some((z) => z.name === zone.name) ? nextZoneName(doc, zone.name) : zone.name;
+  zones.push({ ...zone, name });
+  return { ...doc, zones };
+}
+
+export function updateZone(doc: ProjectDoc, index: number, patch: Partial<ZoneDoc>): ProjectDoc {
+  const zones = (doc.zones ?? []).map((z, i) => (i === index ? { ...z, ...patch } : z));
+  return { ...doc, zones };
+}
+
+export function removeZone(doc: ProjectDoc, index: number): ProjectDoc {
+  return { ...doc, zones: (doc.zones ?? []).filter((_, i) => i !== index) };
+}
+
+/** "+02:00" for an offset in minutes east of UTC. */
+export function formatOffset(offsetMinutes: number): string {
+  const sign = offsetMinutes < 0 ? '-' : '+';
+  const a = Math.abs(offsetMinutes);
+  return `${sign}${String(Math.floor(a / 60)).padStart(2, '0')}:${String(a % 60).padStart(2, '0')}`;
+}
+
+/** The design day (YYYY-MM-DD) of a document's period, or '' for a whole-year run. */
+export function designDayOf(doc: ProjectDoc): string {
+  if (doc.period === 'year') return '';
+  return doc.period.start.slice(0, 10);
+}
+
+/**
+ * Makes the period one design day, 00:00 to the last step before midnight at the site's UTC offset
+ * on that day, keeping the step length.
+ */
+export function setDesignDay(doc: ProjectDoc, dateIso: string): ProjectDoc {
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(dateIso) || Number.isNaN(Date.parse(`${dateIso}T12:00:00Z`))) {
+    throw new InputError({ problem: 'not a date', place: 'design day', value: dateIso, expected: 'a date YYYY-MM-DD' });
+  }
+  const step = doc.period === 'year' ? 60 : doc.period.stepMinutes ?? 60;
+  const offset = formatOffset(zoneOffsetMinutes(doc.site.timeZone, Date.parse(`${dateIso}T12:00:00Z`), 'site.timeZone'));
+  const lastMin = 24 * 60 - step;
+  const hh = String(Math.floor(lastMin / 60)).padStart(2, '0');
+  const mm = String(lastMin % 60).padStart(2, '0');
+  return { ...doc, period: { start: `${dateIso}T00:00:00${offset}`, end: `${dateIso}T${hh}:${mm}:00${offset}`, stepMinutes: step } };
+}
+
+/** Clear-sky weather fields; a file-based weather entry is replaced by clear-sky values. */
+export function setClearSkyWeather(doc: ProjectDoc, patch: { minC?: number; maxC?: number; relativeHumidityPct?: number; windMs?: number }): ProjectDoc {
+  const w: ClearSkyWeatherDoc = doc.weather.source === 'clear-sky' ? { ...doc.weather } : { source: 'clear-sky', airTempC: { min: 18, max: 28 } };
+  const cur = typeof w.airTempC === 'object' && !Array.isArray(w.airTempC) ? w.airTempC : { min: clearSkyMin(w), max: clearSkyMax(w) };
+  if (patch.minC !== undefined || patch.maxC !== undefined) w.airTempC = { min: patch.minC ?? cur.min, max: patch.maxC ?? cur.max };
+  if (patch.relativeHumidityPct !== undefined) w.relativeHumidityPct = patch.relativeHumidityPct;
+  if (patch.windMs !== undefined) w.windMs = patch.windMs;
+  let out: ProjectDoc = { ...doc, weather: w };
+  if (doc.period === 'year') out = setDesignDay(out, `${new Date().getUTCFullYear()}-07-21`);
+  return out;
+}
+
+function clearSkyMin(w: ClearSkyWeatherDoc): number {
+  const t = w.airTempC;
+  return typeof t === 'number' ? t : Array.isArray(t) ? Math.min(...t) : t.min;
+}
+function clearSkyMax(w: ClearSkyWeatherDoc): number {
+  const t = w.airTempC;
+  return typeof t === 'number' ? t : Array.isArray(t) ? Math.max(...t) : t.max;
+}
+
+/** Min/max air temperature [°C] of a clear-sky document (NaN for a weather file). */
+export function airTempRangeOf(doc: ProjectDoc): { minC: number; maxC: number } {
+  if (doc.weather.source !== 'clear-sky') return { minC: NaN, maxC: NaN };
+  return { minC: clearSkyMin(doc.weather), maxC: clearSkyMax(doc.weather) };
+}
+
+/** The azimuth the model's +y axis points to [deg] (0 when unset). */
+export function northDegOf(doc: ProjectDoc): number {
+  return doc.site.northDeg ?? 0;
+}

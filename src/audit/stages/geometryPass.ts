@@ -1,0 +1,140 @@
+/**
+ * Stage 3: the geometry pass, traced once per geometry (DESIGN §1): sun visibility for every
+ * distinct sun direction of the period, sky-patch visibility and surface views for every patch and
+ * for the six directions of every sensor. Nothing here depends on the weather or the materials, so
+ * changing those never re-traces.
+ */
+import type { PreparedModel } from './model.ts';
+import type { Steps } from './steps.ts';
+import type { TraceExecutor, TraceRunOptions } from '../../trace/pool/types.ts';
+import type { SurfaceViewsResult } from '../../trace/queries/surfaceViews.ts';
+import { SIX_DIRECTIONS } from '../../trace/queries/surfaceViews.ts';
+import { skySubdivision } from '../../physics/skySubdivision.ts';
+import type { SamplingSpec } from '../project.ts';
+
+export const SKY_LEVEL = 1;
+
+export interface GeometryData {
+  /** Per step: index of its sun direction, or −1 when the sun is down. */
+  sunIndexOfStep: Int32Array;
+  sunCount: number;
+  /** P × S and N × S: 1 = the ray to the sun is unobstructed. */
+  patchSun: Uint8Array;
+  sensorSun: Uint8Array;
+  /** Sky bands of the subdivision (radiance is uniform within a band), and per receiver Σ P_k over each band [sr]. */
+  bandCount: number;
+  patchSkyBand: Float32Array;
+  /** (N·6) × bands, rows sensor-major in the order up, down, east, south, west, north. */
+  sensorSkyBand: Float32Array;
+  /** Per sensor: Oke's ψ_s of an upward horizontal plane at the sensor. */
+  sensorSkyViewFactor: Float32Array;
+  patchViews: SurfaceViewsResult;
+  sensorViews: SurfaceViewsResult;
+  timings: Record<string, number>;
+}
+
+/** Receiver points of all sensors, concatenated zone by zone. */
+export function sensorPoints(model: PreparedModel): Float64Array {
+  const n = model.sensors.reduce((a, s) => a + s.positions.length / 3, 0);
+  const out = new Float64Array(3 * n);
+  let o = 0;
+  for (const s of model.sensors) {
+    out.set(s.positions, o);
+    o += s.positions.length;
+  }
+  return out;
+}
+
+/** Distinct sun directions (rounded to 1e-5 rad, ≈ 0.0006°) of the steps with the sun up. */
+export function distinctSunDirections(steps: Steps): { sunIndexOfStep: Int32Array; directions: Float64Array } {
+  const index = new Int32Array(steps.count).fill(-1);
+  const seen = new Map<string, number>();
+  const dirs: number[] = [];
+  for (let i = 0; i < steps.count; i++) {
+    if (!(steps.sunAltitudeDeg[i]! > 0)) continue;
+    const x = steps.sunDir[3 * i]!, y = steps.sunDir[3 * i + 1]!, z = steps.sunDir[3 * i + 2]!;
+    const key = `${Math.round(x * 1e5)},${Math.round(y * 1e5)},${Math.round(z * 1e5)}`;
+    let k = seen.get(key);
+    if (k === undefined) {
+      k = dirs.length / 3;
+      seen.set(key, k);
+      dirs.push(x, y, z);
+    }
+    index[i] = k;
+  }
+  return { sunIndexOfStep: index, directions: Float64Array.from(dirs) };
+}
+
+export interface GeometryPassOptions {
+  onStage?: (stage: string, done: number, total: number) => void;
+  signal?: AbortSignal;
+}
+
+export async function geometryPass(model: PreparedModel, steps: Steps, sampling: SamplingSpec, tracer: TraceExecutor, opts: GeometryPassOptions = {}): Promise<GeometryData> {
+  const timings: Record<string, number> = {};
+  const { patches, bvh } = model;
+  const ground = model.hasGroundPlane ? { z: model.groundZ } : null;
+  const P = patches.count;
+  const sensors = sensorPoints(model);
+  const N = sensors.length / 3;
+  const sky = skySubdivision(SKY_LEVEL);
+  const B = sky.bandStart.length;
+  const { sunIndexOfStep, directions } = distinctSunDirections(steps);
+  const S = directions.length / 3;
+  const run = (stage: string): TraceRunOptions => ({
+    onProgress: (done, total) => opts.onStage?.(stage, done, total),
+    ...(opts.signal ? { signal: opts.signal } : {}),
+  });
+  const time = async <T>(name: string, f: () => Promise<T>): Promise<T> => {
+    const t0 = performance.now();
+    opts.onStage?.(name, 0, 1);
+    const r = await f();
+    timings[name] = Math.round(performance.now() - t0);
+    return r;
+  };
+  // Six receivers per sensor for the directional sky: the same point, six normals.
+  const sixPoints = new Float64Array(N * 18);
+  const sixNormals = new Float64Array(N * 18);
+  for (let k = 0; k < N; k++) {
+    for (let d = 0; d < 6; d++) {
+      sixPoints.set(sensors.subarray(3 * k, 3 * k + 3), 18 * k + 3 * d);
+      sixNormals.set(SIX_DIRECTIONS.slice(3 * d, 3 * d + 3), 18 * k + 3 * d);
+    }
+  }
+  const trianglePatch = Int32Array.from(patches.patchOfTriangle);
+  const seed = sampling.seed;
+  const patchSun = S > 0 && P > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces'))) : new Uint8Array(0);
+  const sensorSun = S > 0 && N > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors'))) : new Uint8Array(0);
+  const patchSky = await time('sky seen by surfaces', () =>
+    tracer.skyVisibility(bvh, { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed }, run('sky seen by surfaces')));
+  const sensorSky = await time('sky seen by sensors', () =>
+    tracer.skyVisibility(bvh, { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1 }, run('sky seen by sensors')));
+  const sensorUp = await time('sky view factor of sensors', () =>
+    tracer.skyVisibility(bvh, { points: sensors, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, ground, seed: seed + 2 }, run('sky view factor of sensors')));
+  const patchViews = await time('surface views of surfaces', () =>
+    tracer.surfaceViews(bvh, { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3 }, run('surface views of surfaces')));
+  const sensorViews = await time('surface views of sensors', () =>
+    tracer.surfaceViews(bvh, { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4 }, run('surface views of sensors')));
+  return {
+    sunIndexOfStep, sunCount: S, patchSun, sensorSun, bandCount: B,
+    patchSkyBand: toBands(patchSky.patchProjectedSr, P, sky.count, sky.bandStart, sky.bandCount),
+    sensorSkyBand: toBands(sensorSky.patchProjectedSr, N * 6, sky.count, sky.bandStart, sky.bandCount),
+    sensorSkyViewFactor: sensorUp.skyViewFactor,
+    patchViews, sensorViews, timings,
+  };
+}
+
+/** Sums each receiver's per-patch projected solid angles over the bands of the subdivision. */
+function toBands(perPatch: Float32Array, receivers: number, K: number, bandStart: Uint32Array, bandCount: Uint32Array): Float32Array {
+  const B = bandStart.length;
+  const out = new Float32Array(receivers * B);
+  for (let r = 0; r < receivers; r++) {
+    for (let b = 0; b < B; b++) {
+      let s = 0;
+      const k0 = r * K + bandStart[b]!;
+      for (let k = 0; k < bandCount[b]!; k++) s += perPatch[k0 + k]!;
+      out[r * B + b] = s;
+    }
+  }
+  return out;
+}
