@@ -62,8 +62,7 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   }
   abort();
   const tHeat = performance.now();
-  progress('surface heat balance and comfort', 0, steps.count);
-  const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total));
+    const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total));
   const tEnd = performance.now();
   const results = assembleResults(loaded, model, steps, geometry, ts, {
     timingsMs: { ...geometry.timings, prepare: Math.round(tGeo - t0), geometryPass: Math.round(tHeat - tGeo), timeStepping: Math.round(tEnd - tHeat) },

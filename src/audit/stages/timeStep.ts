@@ -35,6 +35,8 @@ export const CONVERGENCE_K = 0.1;
 export const MAX_PASSES = 6;
 /** Repetitions of the first day before the recorded run, so conduction starts from a periodic state. */
 export const SPIN_UP_DAYS = 2;
+/** A lower bound of a surface's conductance to its surroundings (convection + linearised radiation) [W/(m²·K)]. */
+const SURFACE_CONDUCTANCE_FLOOR_WM2K = 8;
 
 export interface TimeStepOutput {
   /** P × T, row-major by patch. */
@@ -55,6 +57,8 @@ export interface TimeStepOutput {
     utciClampedSensorSteps: number;
     utciClampedInputs: Record<string, number>;
     spinUpSteps: number;
+    /** Patch solves after the first longwave pass (selective re-solving). */
+    resolvedPatchSteps: number;
   };
 }
 
@@ -76,7 +80,7 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
   const mats = model.materials;
   // Per patch material properties, flattened.
   const rhoV = new Float64Array(P), rhoN = new Float64Array(P), absV = new Float64Array(P), absN = new Float64Array(P), eps = new Float64Array(P);
-  const heightM = new Float64Array(P);
+  const heightM = new Float64Array(P), windFactor = new Float64Array(P);
   for (let i = 0; i < P; i++) {
     const m = mats[model.patchMaterial[i]!]!;
     rhoV[i] = m.reflectanceVisible;
@@ -85,6 +89,8 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
     absN[i] = 1 - m.reflectanceNir - m.transmittanceNir;
     eps[i] = m.emissivity;
     heightM[i] = model.patches.centroids[3 * i + 2]! - model.groundZ;
+    // The log law is linear in the 10 m wind: precompute the height factor once per patch.
+    windFactor[i] = windAt(1, heightM[i]!);
   }
   const gm = mats[model.groundMaterial]!;
   const gAbs = 1 - (fv * gm.reflectanceVisible + fn * gm.reflectanceNir);
@@ -103,11 +109,13 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
   const eDirect = new Float64Array(P);
   let eV = new Float64Array(P), eN = new Float64Array(P);
   let eV2 = new Float64Array(P), eN2 = new Float64Array(P);
-  const jLw = new Float64Array(P), lIn = new Float64Array(P), tNew = new Float64Array(P), tPrev = new Float64Array(P);
+  const jLw = new Float64Array(P), jNext = new Float64Array(P), lIn = new Float64Array(P), tNew = new Float64Array(P);
+  const emitted = new Float64Array(P), residualPct = new Float64Array(P);
   for (let i = 0; i < P; i++) {
     const tK = firstAir + KELVIN_AT_0C;
     jLw[i] = STEFAN_BOLTZMANN_W_M2K4 * tK ** 4;
-    tPrev[i] = firstAir;
+    jNext[i] = jLw[i]!;
+    tNew[i] = firstAir;
   }
   let jFar = STEFAN_BOLTZMANN_W_M2K4 * (firstAir + KELVIN_AT_0C) ** 4;
   const inputs: SurfaceStepInputs = { absorbedShortwaveWm2: 0, longwaveInWm2: 0, airTempC: 0, windMs: 0 };
@@ -122,7 +130,7 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
     mrtC: new Float32Array(N * T),
     utciC: new Float32Array(N * T),
     category: Array.from({ length: N }, () => new Array<UtciCategoryId>(T)),
-    stats: { maxEnergyResidualPct: 0, passesMax: 0, passesMean: 0, unconvergedSteps: 0, utciClampedSensorSteps: 0, utciClampedInputs: {}, spinUpSteps: 0 },
+    stats: { maxEnergyResidualPct: 0, passesMax: 0, passesMean: 0, unconvergedSteps: 0, utciClampedSensorSteps: 0, utciClampedInputs: {}, spinUpSteps: 0, resolvedPatchSteps: 0 },
   };
   const stepsPerDay = Math.max(1, Math.min(T, Math.round(24 / steps.stepHours)));
   const schedule: number[] = [];
@@ -178,60 +186,67 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
         eV2[i] = fv * eDirect[i]! + rv;
         eN2[i] = fn * eDirect[i]! + rn;
       }
-      [eV, eV2] = [eV2, eV];
-      [eN, eN2] = [eN2, eN];
+      const tv = eV; eV = eV2; eV2 = tv;
+      const tn = eN; eN = eN2; eN2 = tn;
     }
     // Surface energy balance, iterated on the longwave exchange.
     for (let i = 0; i < P; i++) {
       const st = states[i]!;
-      snap.set(st.conduction.tempC, snapOffset[i]!);
+      const temps = st.conduction.tempC;
+      for (let n = 0, o = snapOffset[i]!; n < temps.length; n++) snap[o + n] = temps[n]!;
       snapSurface[i] = st.surfaceTempC;
     }
     const airLw = STEFAN_BOLTZMANN_W_M2K4 * (ta + KELVIN_AT_0C) ** 4;
     let passes = 0;
-    let converged = false;
+    let converged = P === 0;
     while (passes < MAX_PASSES && !converged) {
       passes++;
       let maxChange = 0;
+      let resolved = 0;
       for (let i = 0; i < P; i++) {
         let l = pv.skyFraction[i]! * lSky + pv.groundFraction[i]! * jFar + pv.otherFraction[i]! * airLw;
         for (let e = pv.rowStart[i]!, end = pv.rowStart[i + 1]!; e < end; e++) l += pv.fraction[e]! * jLw[pv.patchIndex[e]!]!;
+        // After the first pass, re-solve only the patches whose incoming longwave moved enough to
+        // shift their temperature by more than a fraction of the tolerance (ε·ΔL over a lower bound
+        // of the surface conductance).
+        if (passes > 1 && (eps[i]! * Math.abs(l - lIn[i]!)) / SURFACE_CONDUCTANCE_FLOOR_WM2K < 0.25 * CONVERGENCE_K) continue;
         lIn[i] = l;
-      }
-      for (let i = 0; i < P; i++) {
         const st = states[i]!;
         if (passes > 1) {
-          st.conduction.tempC.set(snap.subarray(snapOffset[i]!, snapOffset[i + 1]!));
+          const temps = st.conduction.tempC;
+          for (let n = 0, o = snapOffset[i]!; n < temps.length; n++) temps[n] = snap[o + n]!;
           (st as { surfaceTempC: number }).surfaceTempC = snapSurface[i]!;
         }
         inputs.absorbedShortwaveWm2 = absV[i]! * eV[i]! + absN[i]! * eN[i]!;
-        inputs.longwaveInWm2 = lIn[i]!;
+        inputs.longwaveInWm2 = l;
         inputs.airTempC = ta;
-        inputs.windMs = windAt(v10, heightM[i]!);
+        inputs.windMs = Math.max(v10, 0.1) * windFactor[i]!;
         stepSurface(st, inputs, dtS, res);
-        const change = Math.abs(res.surfaceTempC - (passes > 1 ? tNew[i]! : tPrev[i]!));
-        if (passes > 1 && change > maxChange) maxChange = change;
+        resolved++;
+        if (passes > 1) out.stats.resolvedPatchSteps++;
+        if (passes > 1) maxChange = Math.max(maxChange, Math.abs(res.surfaceTempC - tNew[i]!));
         tNew[i] = res.surfaceTempC;
-        jLw[i] = res.leavingLongwaveWm2;
-        if (record) {
-          const k = i * T + t;
-          out.incidentShortwaveWm2[k] = eV[i]! + eN[i]!;
-          out.surfaceTempC[k] = res.surfaceTempC;
-          out.longwaveEmissionWm2[k] = res.emittedLongwaveWm2;
-          const gain = res.absorbedShortwaveWm2 + res.absorbedLongwaveWm2;
-          const resid = gain - res.emittedLongwaveWm2 - res.convectedWm2 - res.conductedWm2 - res.storedWm2;
-          const scale = Math.max(gain, res.emittedLongwaveWm2, 1);
-          const pct = (100 * Math.abs(resid)) / scale;
-          if (pct > out.stats.maxEnergyResidualPct) out.stats.maxEnergyResidualPct = pct;
-        }
+        jNext[i] = res.leavingLongwaveWm2;
+        emitted[i] = res.emittedLongwaveWm2;
+        const gain = res.absorbedShortwaveWm2 + res.absorbedLongwaveWm2;
+        const resid = gain - res.emittedLongwaveWm2 - res.convectedWm2 - res.conductedWm2 - res.storedWm2;
+        residualPct[i] = (100 * Math.abs(resid)) / Math.max(gain, res.emittedLongwaveWm2, 1);
       }
-      converged = passes > 1 && maxChange < CONVERGENCE_K;
-      if (P === 0) converged = true;
+      jLw.set(jNext);
+      converged = passes > 1 && (resolved === 0 || maxChange < CONVERGENCE_K);
+    }
+    if (record) {
+      for (let i = 0; i < P; i++) {
+        const k = i * T + t;
+        out.incidentShortwaveWm2[k] = eV[i]! + eN[i]!;
+        out.surfaceTempC[k] = tNew[i]!;
+        out.longwaveEmissionWm2[k] = emitted[i]!;
+        if (residualPct[i]! > out.stats.maxEnergyResidualPct) out.stats.maxEnergyResidualPct = residualPct[i]!;
+      }
     }
     if (!converged) out.stats.unconvergedSteps++;
     passesSum += passes;
     if (passes > out.stats.passesMax) out.stats.passesMax = passes;
-    tPrev.set(tNew);
     // Far ground: open, unshaded.
     inputs.absorbedShortwaveWm2 = gAbs * ghi;
     inputs.longwaveInWm2 = lSky;
@@ -239,6 +254,7 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
     inputs.windMs = windAt(v10, 1);
     stepSurface(farGround, inputs, dtS, res);
     jFar = res.leavingLongwaveWm2;
+    onStep?.(q + 1, schedule.length);
     if (!record) continue;
 
     // Sensors: six directional fluxes → MRT → UTCI.
@@ -276,7 +292,6 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
       }
       n0 += count;
     }
-    onStep?.(t + 1, T);
   }
   out.stats.passesMean = passesSum / Math.max(1, schedule.length);
   return out;

@@ -1,0 +1,18 @@
+/**
+ * Big data kept outside React state (STYLE §11): the model's typed arrays, the last results and
+ * the patch triangles. Components read it while building geometry or colouring, keyed by the
+ * version numbers in the store.
+ */
+import type { ModelView, PatchView, SunPath } from '../compute/auditApi.ts';
+import type { Results } from '../../audit/results.ts';
+
+export interface HeavyData {
+  /** The model file's bytes (for the audit, Save and autosave). */
+  modelBytes: Uint8Array | null;
+  model: ModelView | null;
+  results: Results | null;
+  patches: PatchView | null;
+  sunPath: SunPath | null;
+}
+
+export const heavy: HeavyData = { modelBytes: null, model: null, results: null, patches: null, sunPath: null };

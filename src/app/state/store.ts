@@ -1,0 +1,100 @@
+/**
+ * The viewer's small reactive state and its actions (zustand). Big arrays live in `heavy.ts`;
+ * versions here tell components when to re-read them.
+ */
+import { create } from 'zustand';
+import type { ProjectDoc } from './projectDoc.ts';
+import type { ScaleId } from '../colour/scales.ts';
+import type { SensorLayerId, SurfaceLayerId } from '../colour/layers.ts';
+import type { UnitSystem } from '../colour/units.ts';
+import type { UtciCategoryId } from '../../physics/utci.ts';
+
+export type Tool = 'look' | 'pickSurface' | 'drawZone';
+export type ViewMode = 'model' | 'materials' | 'results';
+export type RunStatus = 'idle' | 'running' | 'done' | 'failed' | 'cancelled';
+
+export interface RunState {
+  status: RunStatus;
+  stage: string;
+  done: number;
+  total: number;
+  startedMs: number;
+  stageStartedMs: number;
+  /** Stages finished so far, for the progress list. */
+  stagesDone: string[];
+  message: string;
+  /** Wall time of the last finished run [s]. */
+  elapsedS: number;
+}
+
+export type Picked = { kind: 'sensor'; zone: number; sensor: number } | { kind: 'patch'; patch: number } | null;
+
+export interface Notice {
+  kind: 'error' | 'info';
+  text: string;
+}
+
+export interface ViewerState {
+  doc: ProjectDoc | null;
+  /** 'demo' when the model comes from the demo folder. */
+  modelSource: 'demo' | 'user';
+  modelFileName: string;
+  modelVersion: number;
+  resultsVersion: number;
+  /** The document changed since the results were computed. */
+  resultsStale: boolean;
+  sunPathVersion: number;
+  notice: Notice | null;
+  busy: string;
+  tool: Tool;
+  draftZone: [number, number, number][];
+  selectedSurface: number | null;
+  viewMode: ViewMode;
+  surfaceLayer: SurfaceLayerId | 'none';
+  sensorLayer: SensorLayerId | 'none';
+  category: UtciCategoryId;
+  scale: ScaleId;
+  rangeMode: 'auto' | 'fixed';
+  /** Fixed ranges in SI units, per layer id. */
+  fixedRanges: Record<string, { min: number; max: number }>;
+  units: UnitSystem;
+  timeIndex: number;
+  playing: boolean;
+  picked: Picked;
+  run: RunState;
+  aboutOpen: boolean;
+  set: (patch: Partial<ViewerState>) => void;
+  setDoc: (doc: ProjectDoc, opts?: { keepResults?: boolean }) => void;
+}
+
+export const initialRun: RunState = { status: 'idle', stage: '', done: 0, total: 0, startedMs: 0, stageStartedMs: 0, stagesDone: [], message: '', elapsedS: 0 };
+
+export const useViewer = create<ViewerState>()((set) => ({
+  doc: null,
+  modelSource: 'demo',
+  modelFileName: '',
+  modelVersion: 0,
+  resultsVersion: 0,
+  resultsStale: false,
+  sunPathVersion: 0,
+  notice: null,
+  busy: '',
+  tool: 'look',
+  draftZone: [],
+  selectedSurface: null,
+  viewMode: 'model',
+  surfaceLayer: 'surfaceTemp',
+  sensorLayer: 'utci',
+  category: 'strong-heat',
+  scale: 'magma',
+  rangeMode: 'auto',
+  fixedRanges: {},
+  units: 'SI',
+  timeIndex: 12,
+  playing: false,
+  picked: null,
+  run: initialRun,
+  aboutOpen: false,
+  set: (patch) => set(patch),
+  setDoc: (doc, opts) => set((s) => ({ doc, resultsStale: opts?.keepResults ? s.resultsStale : s.resultsVersion > 0 })),
+}));
