@@ -8,7 +8,10 @@ import type { LoadedProject } from './load.ts';
 import type { Results, SensorResult, SurfaceResult, ZoneResult } from './results.ts';
 import { buildSteps, type Steps } from './stages/steps.ts';
 import { prepareModel, type PreparedModel } from './stages/model.ts';
-import { geometryPass, type GeometryData } from './stages/geometryPass.ts';
+import { geometryPass, shardSlice, type GeometryData } from './stages/geometryPass.ts';
+import { encodeGeometryPartial, decodeGeometryPartial, mergeGeometry, type PartialMeta } from './shard.ts';
+import { sensorPoints } from './stages/geometryPass.ts';
+import { InputError } from '../physics/errors.ts';
 import { runTimeSteps, type TimeStepOutput } from './stages/timeStep.ts';
 import type { TraceExecutor } from '../trace/pool/types.ts';
 import { createInProcessExecutor } from '../trace/pool/workerPool.ts';
@@ -42,7 +45,17 @@ export async function runAudit(loaded: LoadedProject, opts: AuditOptions = {}): 
   return (await runAuditWithState(loaded, opts)).results;
 }
 
-export async function runAuditWithState(loaded: LoadedProject, opts: AuditOptions = {}, reuse?: { model: PreparedModel; geometry: GeometryData }): Promise<{ results: Results; state: AuditState }> {
+/**
+ * What varies from run to run without changing a number (kept out of results.json so the same
+ * project gives byte-identical results with any worker count or sharding): written as run.json.
+ */
+export interface RunRecord {
+  date: string;
+  workers: number;
+  timingsMs: Record<string, number>;
+}
+
+export async function runAuditWithState(loaded: LoadedProject, opts: AuditOptions = {}, reuse?: { model: PreparedModel; geometry: GeometryData }): Promise<{ results: Results; state: AuditState; record: RunRecord }> {
   const t0 = performance.now();
   const progress = (stage: string, done: number, total: number) => opts.onProgress?.({ stage, done, total });
   const abort = () => {
@@ -64,12 +77,13 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   const tHeat = performance.now();
     const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total));
   const tEnd = performance.now();
-  const results = assembleResults(loaded, model, steps, geometry, ts, {
-    timingsMs: { ...geometry.timings, prepare: Math.round(tGeo - t0), geometryPass: Math.round(tHeat - tGeo), timeStepping: Math.round(tEnd - tHeat) },
-    workers: tracer.workerCount,
+  const results = assembleResults(loaded, model, steps, geometry, ts);
+  const record: RunRecord = {
     date: (opts.now ?? (() => new Date()))().toISOString(),
-  });
-  return { results, state: { model, steps, geometry } };
+    workers: tracer.workerCount,
+    timingsMs: { ...geometry.timings, prepare: Math.round(tGeo - t0), geometryPass: Math.round(tHeat - tGeo), timeStepping: Math.round(tEnd - tHeat) },
+  };
+  return { results, state: { model, steps, geometry }, record };
 }
 
 const r1 = (x: number) => Math.round(x * 10) / 10;
@@ -92,7 +106,6 @@ function assembleResults(
   steps: Steps,
   geo: GeometryData,
   ts: TimeStepOutput,
-  run: { timingsMs: Record<string, number>; workers: number; date: string },
 ): Results {
   const T = steps.count;
   const p = model.patches;
@@ -160,7 +173,6 @@ function assembleResults(
     warnings,
     run: {
       software: `sunfacet ${SOFTWARE_VERSION}`,
-      date: run.date,
       site: pr.site,
       modelFile: pr.model.file,
       modelHashFnv1a32: fnv1a32Hex(model.modelBytes),
@@ -171,8 +183,6 @@ function assembleResults(
       triangles: p.scene.indices.length / 3,
       distinctSunDirections: geo.sunCount,
       sampling: pr.sampling,
-      workers: run.workers,
-      timingsMs: run.timingsMs,
       energyBalanceMaxResidualPct: Math.round(ts.stats.maxEnergyResidualPct * 1e4) / 1e4,
       longwavePassesMax: ts.stats.passesMax,
       longwavePassesMean: r2(ts.stats.passesMean),
@@ -189,4 +199,46 @@ function assembleResults(
       },
     },
   };
+}
+
+/** Identifies a project for shards: its validated content and the model bytes. */
+export function projectHash(loaded: LoadedProject, model: PreparedModel): string {
+  const text = new TextEncoder().encode(JSON.stringify(loaded.project));
+  return `${fnv1a32Hex(text)}-${fnv1a32Hex(model.modelBytes)}`;
+}
+
+/**
+ * Shard K of N: traces only its slice of patches and sensors and returns the geometry partial
+ * (bytes to write); `runAuditFromPartials` joins all N and finishes the audit.
+ */
+export async function runAuditShard(loaded: LoadedProject, shard: { index: number; count: number }, opts: AuditOptions = {}): Promise<{ partial: Uint8Array; meta: PartialMeta }> {
+  const progress = (stage: string, done: number, total: number) => opts.onProgress?.({ stage, done, total });
+  const model = await prepareModel(loaded);
+  const steps = buildSteps(loaded.project, loaded.weather);
+  const sensorCount = sensorPoints(model).length / 3;
+  const slice = shardSlice(shard.index, shard.count, model.patches.count, sensorCount);
+  const tracer = opts.tracer ?? createInProcessExecutor();
+  let geo: GeometryData;
+  try {
+    geo = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, slice, ...(opts.signal ? { signal: opts.signal } : {}) });
+  } finally {
+    if (!opts.tracer) await tracer.close();
+  }
+  const meta: PartialMeta = { projectHash: projectHash(loaded, model), shard, patchCount: model.patches.count, sensorCount, stepCount: steps.count };
+  return { partial: encodeGeometryPartial(geo, meta), meta };
+}
+
+/** Joins the partials of all shards and runs the time stepping: the same Results as `runAudit`. */
+export async function runAuditFromPartials(loaded: LoadedProject, partials: { bytes: Uint8Array; file: string }[], opts: AuditOptions = {}): Promise<{ results: Results; record: RunRecord }> {
+  const model = await prepareModel(loaded);
+  const hash = projectHash(loaded, model);
+  const parts = partials.map((p) => ({ ...decodeGeometryPartial(p.bytes, p.file), file: p.file }));
+  for (const p of parts) {
+    if (p.meta.projectHash !== hash) {
+      throw new InputError({ file: p.file, problem: 'this partial was computed for another version of the project or model', expected: `a partial of project ${hash}`, value: p.meta.projectHash });
+    }
+  }
+  const geometry = mergeGeometry(parts);
+  const { results, record } = await runAuditWithState(loaded, { ...opts, tracer: opts.tracer ?? ({ workerCount: 0 } as TraceExecutor) }, { model, geometry });
+  return { results, record };
 }

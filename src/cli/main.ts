@@ -11,8 +11,9 @@ import { comfortCommand } from './commands/comfort.ts';
 import { demoCommand } from './commands/demo.ts';
 import { dayCommand } from './commands/day.ts';
 import { auditCommand } from './commands/audit.ts';
+import { mergeCommand } from './commands/merge.ts';
 
-export const COMMANDS: Command[] = [auditCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
+export const COMMANDS: Command[] = [auditCommand, mergeCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
 
 const CAUTION =
   'Sunfacet screens designs; it does not certify them. Results depend on the inputs and the model\n' +

@@ -53,7 +53,10 @@ export interface ViewerState {
   surfaceLayer: SurfaceLayerId | 'none';
   sensorLayer: SensorLayerId | 'none';
   category: UtciCategoryId;
+  /** Scale of the surface layer. */
   scale: ScaleId;
+  /** Scale of the zone layer (a different one by default, so the two legends are not confused). */
+  sensorScale: ScaleId;
   rangeMode: 'auto' | 'fixed';
   /** Fixed ranges in SI units, per layer id. */
   fixedRanges: Record<string, { min: number; max: number }>;
@@ -87,6 +90,7 @@ export const useViewer = create<ViewerState>()((set) => ({
   sensorLayer: 'utci',
   category: 'strong-heat',
   scale: 'magma',
+  sensorScale: 'viridis',
   rangeMode: 'auto',
   fixedRanges: {},
   units: 'SI',

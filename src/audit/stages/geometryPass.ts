@@ -30,6 +30,8 @@ export interface GeometryData {
   sensorSkyViewFactor: Float32Array;
   patchViews: SurfaceViewsResult;
   sensorViews: SurfaceViewsResult;
+  /** The receivers these arrays cover (the whole model unless this is a shard's partial). */
+  slice: GeometrySlice;
   timings: Record<string, number>;
 }
 
@@ -68,6 +70,19 @@ export function distinctSunDirections(steps: Steps): { sunIndexOfStep: Int32Arra
 export interface GeometryPassOptions {
   onStage?: (stage: string, done: number, total: number) => void;
   signal?: AbortSignal;
+  /** Trace only patches [p0, p1) and sensors [s0, s1) (a shard); default everything. */
+  slice?: GeometrySlice;
+}
+
+export interface GeometrySlice {
+  patches: [number, number];
+  sensors: [number, number];
+}
+
+/** The K-th (1-based) of N slices of the receivers: contiguous ranges of patches and of sensors. */
+export function shardSlice(index: number, count: number, patchCount: number, sensorCount: number): GeometrySlice {
+  const cut = (n: number, k: number) => Math.floor((n * k) / count);
+  return { patches: [cut(patchCount, index - 1), cut(patchCount, index)], sensors: [cut(sensorCount, index - 1), cut(sensorCount, index)] };
 }
 
 export async function geometryPass(model: PreparedModel, steps: Steps, sampling: SamplingSpec, tracer: TraceExecutor, opts: GeometryPassOptions = {}): Promise<GeometryData> {
@@ -81,10 +96,15 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   const B = sky.bandStart.length;
   const { sunIndexOfStep, directions } = distinctSunDirections(steps);
   const S = directions.length / 3;
-  const run = (stage: string): TraceRunOptions => ({
+  const slice = opts.slice ?? { patches: [0, P] as [number, number], sensors: [0, N] as [number, number] };
+  const run = (stage: string, range?: readonly [number, number]): TraceRunOptions => ({
     onProgress: (done, total) => opts.onStage?.(stage, done, total),
     ...(opts.signal ? { signal: opts.signal } : {}),
+    ...(range ? { range } : {}),
   });
+  const pr = slice.patches, sr = slice.sensors;
+  const sr6: [number, number] = [6 * sr[0], 6 * sr[1]];
+  const nP = pr[1] - pr[0], nS = sr[1] - sr[0];
   const time = async <T>(name: string, f: () => Promise<T>): Promise<T> => {
     const t0 = performance.now();
     opts.onStage?.(name, 0, 1);
@@ -103,24 +123,29 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   }
   const trianglePatch = Int32Array.from(patches.patchOfTriangle);
   const seed = sampling.seed;
-  const patchSun = S > 0 && P > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces'))) : new Uint8Array(0);
-  const sensorSun = S > 0 && N > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors'))) : new Uint8Array(0);
+  const patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
+  const sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
   const patchSky = await time('sky seen by surfaces', () =>
-    tracer.skyVisibility(bvh, { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed }, run('sky seen by surfaces')));
+    tracer.skyVisibility(bvh, { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed }, run('sky seen by surfaces', pr)));
   const sensorSky = await time('sky seen by sensors', () =>
-    tracer.skyVisibility(bvh, { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1 }, run('sky seen by sensors')));
-  const sensorUp = await time('sky view factor of sensors', () =>
-    tracer.skyVisibility(bvh, { points: sensors, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, ground, seed: seed + 2 }, run('sky view factor of sensors')));
+    tracer.skyVisibility(bvh, { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1 }, run('sky seen by sensors', sr6)));
   const patchViews = await time('surface views of surfaces', () =>
-    tracer.surfaceViews(bvh, { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3 }, run('surface views of surfaces')));
+    tracer.surfaceViews(bvh, { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3 }, run('surface views of surfaces', pr)));
   const sensorViews = await time('surface views of sensors', () =>
-    tracer.surfaceViews(bvh, { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4 }, run('surface views of sensors')));
+    tracer.surfaceViews(bvh, { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4 }, run('surface views of sensors', sr)));
+  const sensorSkyBand = toBands(sensorSky.patchProjectedSr, nS * 6, sky.count, sky.bandStart, sky.bandCount);
+  // Oke's ψ_s: the upward-facing plane (direction 0 of the six) — Σ_k P_k / π.
+  const sensorSkyViewFactor = new Float32Array(nS);
+  for (let k = 0; k < nS; k++) {
+    let sum = 0;
+    for (let b = 0; b < B; b++) sum += sensorSkyBand[6 * k * B + b]!;
+    sensorSkyViewFactor[k] = sum / Math.PI;
+  }
   return {
     sunIndexOfStep, sunCount: S, patchSun, sensorSun, bandCount: B,
-    patchSkyBand: toBands(patchSky.patchProjectedSr, P, sky.count, sky.bandStart, sky.bandCount),
-    sensorSkyBand: toBands(sensorSky.patchProjectedSr, N * 6, sky.count, sky.bandStart, sky.bandCount),
-    sensorSkyViewFactor: sensorUp.skyViewFactor,
-    patchViews, sensorViews, timings,
+    patchSkyBand: toBands(patchSky.patchProjectedSr, nP, sky.count, sky.bandStart, sky.bandCount),
+    sensorSkyBand, sensorSkyViewFactor,
+    patchViews, sensorViews, slice, timings,
   };
 }
 

@@ -33,6 +33,11 @@ export interface TraceRunOptions {
   progressIntervalMs?: number | undefined;
   /** Aborting stops handing out chunks, terminates the workers and rejects with the signal's reason. */
   signal?: AbortSignal | undefined;
+  /**
+   * Only receivers [start, end) (a shard of the work); the result covers just those, in order. The
+   * numbers equal the same rows of a full run (each receiver's random stream depends on its index).
+   */
+  range?: readonly [number, number] | undefined;
 }
 
 /** Runs the ray queries over all receivers, in chunks, with identical results for any worker count. */

@@ -112,16 +112,21 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
       if (closed) return Promise.reject(new Error('the trace executor is closed'));
       const signal = opts.signal;
       if (signal?.aborted) return Promise.reject(abortReason(signal));
+      const [r0, r1] = opts.range ?? [0, total];
+      if (!(Number.isInteger(r0) && Number.isInteger(r1) && r0 >= 0 && r1 <= total && r0 <= r1)) {
+        return Promise.reject(new InputError({ problem: 'bad receiver range', place: 'trace run range', expected: `0 <= start <= end <= ${total}`, value: opts.range }));
+      }
+      const span = r1 - r0;
       const chunkSize =
         opts.chunkSize ??
-        Math.max(1, Math.min(Math.ceil(total / workerCount), Math.floor(RAYS_PER_CHUNK / Math.max(1, raysPerReceiver))));
+        Math.max(1, Math.min(Math.ceil(span / workerCount), Math.floor(RAYS_PER_CHUNK / Math.max(1, raysPerReceiver))));
       if (!Number.isInteger(chunkSize) || chunkSize < 1) {
         return Promise.reject(new InputError({ problem: 'bad chunk size', place: 'trace run chunkSize', expected: 'an integer >= 1', value: chunkSize }));
       }
       const chunks: [number, number][] = [];
-      for (let s = 0; s < total; s += chunkSize) chunks.push([s, Math.min(total, s + chunkSize)]);
+      for (let s = r0; s < r1; s += chunkSize) chunks.push([s, Math.min(r1, s + chunkSize)]);
       // An empty job still runs one (empty) chunk so the result has its shape.
-      if (chunks.length === 0) chunks.push([0, 0]);
+      if (chunks.length === 0) chunks.push([r0, r0]);
       const { id: bvhId, sendable } = bvhEntry(bvh);
       const taskId = nextTaskId++;
       const fullTask: TraceTask = { ...task, bvhId } as TraceTask;
@@ -235,13 +240,15 @@ function executorOn(scheduler: Scheduler): TraceExecutor {
       const total = sunVisibilityReceiverCount(input);
       sunVisibility(bvh, input, 0, 0); // checks the whole input here, so bad input throws an InputError at once
       const chunks = await scheduler.run({ kind: 'sunVisibility', bvhId: 0, input }, bvh, total, raysPerSunReceiver(input), opts);
-      return mergeSunVisibility(chunks as Extract<TraceChunkResult, { kind: 'sunVisibility' }>[], total, input.sunDirections.length / 3);
+      const [r0, r1] = opts.range ?? [0, total];
+      return mergeSunVisibility(chunks as Extract<TraceChunkResult, { kind: 'sunVisibility' }>[], r1 - r0, input.sunDirections.length / 3, r0);
     },
     async skyVisibility(bvh, input, opts = {}): Promise<SkyVisibilityResult> {
       const total = skyVisibilityReceiverCount(input);
       skyVisibility(bvh, input, 0, 0);
       const chunks = await scheduler.run({ kind: 'skyVisibility', bvhId: 0, input }, bvh, total, raysPerSkyReceiver(input), opts);
-      return mergeSkyVisibility(chunks as Extract<TraceChunkResult, { kind: 'skyVisibility' }>[], total);
+      const [r0, r1] = opts.range ?? [0, total];
+      return mergeSkyVisibility(chunks as Extract<TraceChunkResult, { kind: 'skyVisibility' }>[], r1 - r0, r0, skySubdivision(input.skyLevel ?? 1).count);
     },
     async surfaceViews(bvh, input, opts = {}): Promise<SurfaceViewsResult> {
       const total = surfaceViewsReceiverCount(input);
@@ -249,7 +256,8 @@ function executorOn(scheduler: Scheduler): TraceExecutor {
       const D = surfaceViewsDirections(input);
       const rays = D * (input.samplesPerDirection ?? DEFAULT_VIEW_SAMPLES);
       const chunks = await scheduler.run({ kind: 'surfaceViews', bvhId: 0, input }, bvh, total, rays, opts);
-      return mergeSurfaceViews(chunks as Extract<TraceChunkResult, { kind: 'surfaceViews' }>[], total, D);
+      const [r0, r1] = opts.range ?? [0, total];
+      return mergeSurfaceViews(chunks as Extract<TraceChunkResult, { kind: 'surfaceViews' }>[], r1 - r0, D, r0);
     },
     async close() {
       scheduler.close();

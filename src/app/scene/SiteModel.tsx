@@ -1,0 +1,61 @@
+/** The imported model in neutral tones (or coloured by assigned preset); click to pick a surface or a zone corner. */
+import { useEffect, useMemo } from 'react';
+import { useThree, type ThreeEvent } from '@react-three/fiber';
+import { BufferAttribute, BufferGeometry, DoubleSide } from 'three';
+import { useViewer } from '../state/store.ts';
+import { heavy } from '../state/heavy.ts';
+import { modelColours, presetPerSurface, unindexedPositions } from './surfaceTones.ts';
+import { srgbToLinearInPlace } from './colourAttr.ts';
+import { addDraftPoint } from './pick.ts';
+
+export function SiteModel() {
+  const modelVersion = useViewer((s) => s.modelVersion);
+  const doc = useViewer((s) => s.doc);
+  const viewMode = useViewer((s) => s.viewMode);
+  const selected = useViewer((s) => s.selectedSurface);
+  const hasHeatmap = useViewer((s) => s.resultsVersion > 0 && s.viewMode === 'results' && s.surfaceLayer !== 'none');
+  const invalidate = useThree((s) => s.invalidate);
+
+  const geometry = useMemo(() => {
+    const m = heavy.model;
+    if (!m || modelVersion === 0) return null;
+    const g = new BufferGeometry();
+    g.setAttribute('position', new BufferAttribute(unindexedPositions(m), 3));
+    g.setAttribute('color', new BufferAttribute(new Float32Array((m.indices.length / 3) * 9), 3));
+    g.computeVertexNormals();
+    g.computeBoundingSphere();
+    return g;
+  }, [modelVersion]);
+
+  useEffect(() => () => geometry?.dispose(), [geometry]);
+
+  useEffect(() => {
+    const m = heavy.model;
+    if (!geometry || !m || !doc) return;
+    const per = presetPerSurface(doc, m);
+    const colours = srgbToLinearInPlace(modelColours(m, per, viewMode === 'materials' ? 'materials' : 'model', selected));
+    const attr = geometry.getAttribute('color') as BufferAttribute;
+    (attr.array as Float32Array).set(colours);
+    attr.needsUpdate = true;
+    invalidate();
+  }, [geometry, doc, viewMode, selected, invalidate]);
+
+  if (!geometry) return null;
+
+  const onClick = (e: ThreeEvent<MouseEvent>) => {
+    if (addDraftPoint(e)) return;
+    const s = useViewer.getState();
+    const m = heavy.model;
+    if (!m || e.faceIndex === undefined || e.faceIndex === null) return;
+    if (s.tool === 'pickSurface' || s.viewMode !== 'results') {
+      e.stopPropagation();
+      s.set({ selectedSurface: m.surfaceIds[e.faceIndex] ?? null });
+    }
+  };
+
+  return (
+    <mesh geometry={geometry} castShadow receiveShadow visible={!hasHeatmap} onClick={onClick} name="site-model">
+      <meshStandardMaterial vertexColors side={DoubleSide} roughness={0.9} metalness={0} polygonOffset polygonOffsetFactor={1} polygonOffsetUnits={1} />
+    </mesh>
+  );
+}
