@@ -150,8 +150,13 @@ export function validateProject(raw: unknown, file: string): Project {
     sampling = {
       seed: sp.seed === undefined ? sampling.seed : v.number(sp.seed, 'sampling.seed', { min: 0, max: 2 ** 32 - 1, integer: true }),
       skyRaysPerPatch: sp.skyRaysPerPatch === undefined ? sampling.skyRaysPerPatch : v.number(sp.skyRaysPerPatch, 'sampling.skyRaysPerPatch', { min: 1, max: 4096, integer: true }),
-      viewRays: sp.viewRays === undefined ? sampling.viewRays : v.number(sp.viewRays, 'sampling.viewRays', { min: 6, max: 65536, integer: true }),
+      viewRays: sp.viewRays === undefined ? sampling.viewRays : v.number(sp.viewRays, 'sampling.viewRays', { min: 4, max: 65536, integer: true }),
     };
+    // The stratified samplers lay rays on a side × side jittered grid.
+    for (const key of ['skyRaysPerPatch', 'viewRays'] as const) {
+      const n = sampling[key];
+      if (Math.round(Math.sqrt(n)) ** 2 !== n) v.fail(`sampling.${key}`, 'not a square number', 'a square number such as 4, 9, 16, 25, 64, 256 (rays on a jittered square grid)', n);
+    }
   }
   return { sunfacet: 1, name, site, model, materials, defaultMaterial, ground, zones, period, weather, sampling };
 }

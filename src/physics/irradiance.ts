@@ -67,11 +67,22 @@ export function angleOfIncidenceDeg(
   requireInRange(surfaceAzimuthDeg, -360, 360, 'surfaceAzimuthDeg', '°');
   requireInRange(solarZenithDeg, 0, 180, 'solarZenithDeg', '°');
   requireInRange(solarAzimuthDeg, -360, 360, 'solarAzimuthDeg', '°');
+  return Math.acos(cosIncidenceFromAngles(surfaceTiltDeg, surfaceAzimuthDeg, solarZenithDeg, solarAzimuthDeg)) / DEG;
+}
+
+/**
+ * Cosine of the angle of incidence of the sun on a plane given by tilt and azimuth, clipped to
+ * [-1, 1]: cos θ = cos z cos S + sin z sin S cos(γs − γ). Hot-path kernel: inputs are not checked.
+ *
+ * References: Duffie & Beckman 2013, sec. 1.6 [1].
+ *
+ * @example cosIncidenceFromAngles(90, 180, 40, 180) // → cos 50° = 0.6428
+ */
+export function cosIncidenceFromAngles(surfaceTiltDeg: number, surfaceAzimuthDeg: number, solarZenithDeg: number, solarAzimuthDeg: number): number {
   const s = surfaceTiltDeg * DEG;
   const z = solarZenithDeg * DEG;
-  const c =
-    Math.cos(z) * Math.cos(s) + Math.sin(z) * Math.sin(s) * Math.cos((solarAzimuthDeg - surfaceAzimuthDeg) * DEG);
-  return Math.acos(Math.max(-1, Math.min(1, c))) / DEG;
+  const c = Math.cos(z) * Math.cos(s) + Math.sin(z) * Math.sin(s) * Math.cos((solarAzimuthDeg - surfaceAzimuthDeg) * DEG);
+  return Math.min(1, Math.max(-1, c));
 }
 
 /**

@@ -21,6 +21,7 @@
  *     doi:10.21105/joss.00884 — `irradiance.perez`, whose formulation (κ, bins, clipping) is
  *     followed here so its published test cases apply.
  */
+import { cosIncidenceFromAngles } from './irradiance.ts';
 import { InputError, requireInRange } from './errors.ts';
 
 const D2R = Math.PI / 180;
@@ -183,23 +184,6 @@ export function perezCircumsolarDenominator(solarZenithDeg: number): number {
 }
 
 /**
- * Cosine of the angle of incidence of the sun on a plane, clipped to [-1, 1].
- * cos θ = cos z cos S + sin z sin S cos(γs − γ).
- */
-export function cosIncidence(
-  surfaceTiltDeg: number,
-  surfaceAzimuthDeg: number,
-  solarZenithDeg: number,
-  solarAzimuthDeg: number,
-): number {
-  const s = surfaceTiltDeg * D2R;
-  const z = solarZenithDeg * D2R;
-  const c =
-    Math.cos(z) * Math.cos(s) + Math.sin(z) * Math.sin(s) * Math.cos((solarAzimuthDeg - surfaceAzimuthDeg) * D2R);
-  return Math.min(1, Math.max(-1, c));
-}
-
-/**
  * Perez 1990 anisotropic sky diffuse irradiance on a tilted plane, by part.
  *
  * Equation [1], [2] (pvlib formulation [4]):
@@ -235,7 +219,7 @@ export function perez1990Components(inputs: PerezTiltInputs, target?: PerezCompo
   const s = inputs.surfaceTiltDeg * D2R;
   const a = Math.max(
     0,
-    cosIncidence(inputs.surfaceTiltDeg, inputs.surfaceAzimuthDeg, inputs.solarZenithDeg, inputs.solarAzimuthDeg),
+    cosIncidenceFromAngles(inputs.surfaceTiltDeg, inputs.surfaceAzimuthDeg, inputs.solarZenithDeg, inputs.solarAzimuthDeg),
   );
   const b = perezCircumsolarDenominator(inputs.solarZenithDeg);
   const iso = dhi * 0.5 * (1 - out.f1) * (1 + Math.cos(s));

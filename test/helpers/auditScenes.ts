@@ -160,7 +160,7 @@ export function argMax(xs: readonly number[]): number {
   return best;
 }
 
-/** Results as JSON without the parts of the run record that legitimately differ between runs. */
+/** Results as JSON without run-record fields that may differ between runs (date, timings, worker count), should they be present. */
 export function comparableJson(r: Results): string {
   const run = { ...r.run };
   delete run.date;

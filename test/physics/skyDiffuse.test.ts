@@ -1,7 +1,7 @@
+import { cosIncidenceFromAngles } from '../../src/physics/irradiance.ts';
 import { describe, it, expect } from 'vitest';
 import {
   PEREZ_1990_ALL_SITES_COMPOSITE,
-  cosIncidence,
   isotropicSkyDiffuseWm2,
   perez1990Components,
   perez1990SkyParameters,
@@ -233,13 +233,13 @@ describe('perez1990Components', () => {
   });
 });
 
-describe('cosIncidence', () => {
+describe('cosIncidenceFromAngles', () => {
   it('reproduces the façade angles of incidence', () => {
     // source: REFERENCE-VALUES §5.2 angle of incidence [derived]: 50°, 52.2388°, 105.19°; tolerance 1e-4° / 0.01°
     const deg = (c: number): number => (Math.acos(c) * 180) / Math.PI;
-    expect(Math.abs(deg(cosIncidence(90, 180, 40, 180)) - 50)).toBeLessThan(1e-9);
-    expect(Math.abs(deg(cosIncidence(90, 180, 60, 135)) - 52.2388)).toBeLessThan(1e-4);
-    expect(Math.abs(deg(cosIncidence(90, 90, 50, 200)) - 105.19)).toBeLessThan(0.01);
+    expect(Math.abs(deg(cosIncidenceFromAngles(90, 180, 40, 180)) - 50)).toBeLessThan(1e-9);
+    expect(Math.abs(deg(cosIncidenceFromAngles(90, 180, 60, 135)) - 52.2388)).toBeLessThan(1e-4);
+    expect(Math.abs(deg(cosIncidenceFromAngles(90, 90, 50, 200)) - 105.19)).toBeLessThan(0.01);
   });
 });
 

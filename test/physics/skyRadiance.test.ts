@@ -1,8 +1,8 @@
+import { cosIncidenceFromAngles } from '../../src/physics/irradiance.ts';
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { skySubdivision, type SkySubdivision } from '../../src/physics/skySubdivision.ts';
 import {
-  cosIncidence,
   perez1990Components,
   type PerezSkyInputs,
   type PerezTiltInputs,
@@ -73,7 +73,7 @@ function patchFormWm2(sky: SkySubdivision, c: PerezTiltInputs, steps: number): n
   const radiance = new Float64Array(sky.count);
   const weights = planeProjectedSr(sky, c.surfaceTiltDeg, c.surfaceAzimuthDeg, steps, new Float64Array(sky.count));
   const r = perez1990SkyRadiance(sky, c, radiance);
-  const ci = cosIncidence(c.surfaceTiltDeg, c.surfaceAzimuthDeg, c.solarZenithDeg, c.solarAzimuthDeg);
+  const ci = cosIncidenceFromAngles(c.surfaceTiltDeg, c.surfaceAzimuthDeg, c.solarZenithDeg, c.solarAzimuthDeg);
   return skyIrradianceFromPatchesWm2(radiance, weights, r.circumsolarNormalWm2, ci, true);
 }
 
@@ -246,7 +246,7 @@ describe('perez1990SkyRadiance: vertical planes reproduce Perez exactly (propert
           checked++;
           azimuths.forEach((az, i) => {
             const ref = perez1990Components({ ...s, surfaceTiltDeg: 90, surfaceAzimuthDeg: az }).totalWm2;
-            const ci = cosIncidence(90, az, s.solarZenithDeg, s.solarAzimuthDeg);
+            const ci = cosIncidenceFromAngles(90, az, s.solarZenithDeg, s.solarAzimuthDeg);
             const e = skyIrradianceFromPatchesWm2(radiance, weights[i]!, res.circumsolarNormalWm2, ci, true);
             // source: derived — horizon scaling L_h = F2·DHI/(V₀ − P₀/2) (skyRadiance.ts header) against
             // the Perez 1990 tilted-plane formula; 1e-6 rel (test integrator error ≈ 1e-7)
