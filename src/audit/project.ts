@@ -6,6 +6,7 @@
 import { Validator, join } from './validate.ts';
 import { parseIsoTime, zoneOffsetMinutes } from '../physics/time.ts';
 import { InputError } from '../physics/errors.ts';
+import { resolveMaterial } from '../physics/materials.ts';
 
 export type Posture = 'standing' | 'seated';
 
@@ -162,10 +163,10 @@ export function validateProject(raw: unknown, file: string): Project {
 }
 
 function materialAssignment(v: Validator, val: unknown, path: string): MaterialAssignment {
-  if (typeof val === 'string') return v.string(val, path, 'a material preset id');
-  const obj = v.object(val, path);
-  if (obj.preset !== undefined) v.string(obj.preset, join(path, 'preset'), 'a material preset id');
-  return obj as MaterialAssignment;
+  const spec: MaterialAssignment = typeof val === 'string' ? v.string(val, path, 'a material preset id') : (v.object(val, path) as MaterialAssignment);
+  // Checked now (unknown preset, bad override) so a typo never waits for the run to fail.
+  resolveMaterial(spec, path, v.file);
+  return spec;
 }
 
 function zoneSpec(v: Validator, raw: unknown, path: string, groundZ: number): ZoneSpec {

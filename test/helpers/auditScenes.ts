@@ -61,6 +61,8 @@ export interface SceneProjectInput {
   /** First and last hour of the day (default 0 and 23). */
   firstHour?: number;
   lastHour?: number;
+  /** Minutes past `lastHour` of the last step (e.g. 30 for a half-hourly day ending 23:30). */
+  lastMinute?: number;
   stepMinutes?: number;
   airTempC?: number | { min: number; max: number };
   relativeHumidityPct?: number;
@@ -95,7 +97,7 @@ export function sceneProject(p: SceneProjectInput): Record<string, unknown> {
     })),
     period: {
       start: `${date}T${pad2(p.firstHour ?? 0)}:00:00+00:00`,
-      end: `${date}T${pad2(p.lastHour ?? 23)}:00:00+00:00`,
+      end: `${date}T${pad2(p.lastHour ?? 23)}:${pad2(p.lastMinute ?? 0)}:00+00:00`,
       stepMinutes: p.stepMinutes ?? 60,
     },
     weather: {

@@ -6,7 +6,7 @@ import { heavy } from '../state/heavy.ts';
 import { addDraftPoint } from './pick.ts';
 
 /** Drawn this far below the ground level so the audit's ground cells show on top [m]. */
-const SINK_M = 0.02;
+const SINK_M = 0.05;
 
 export function GroundPlane() {
   const modelVersion = useViewer((s) => s.modelVersion);
@@ -25,7 +25,7 @@ export function GroundPlane() {
   return (
     <mesh position={[box.cx, box.cy, z]} receiveShadow onClick={onClick} name="ground-plane">
       <planeGeometry args={[box.size, box.size]} />
-      <meshStandardMaterial color="#c9c6bd" roughness={1} metalness={0} />
+      <meshStandardMaterial color="#c9c6bd" roughness={1} metalness={0} polygonOffset polygonOffsetFactor={4} polygonOffsetUnits={4} />
     </mesh>
   );
 }

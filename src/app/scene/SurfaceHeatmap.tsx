@@ -65,7 +65,7 @@ export function SurfaceHeatmap() {
 
   return (
     <mesh geometry={geometry} onClick={onClick} name="surface-heatmap">
-      <meshBasicMaterial vertexColors side={DoubleSide} polygonOffset polygonOffsetFactor={1} polygonOffsetUnits={1} />
+      <meshBasicMaterial vertexColors side={DoubleSide} />
     </mesh>
   );
 }

@@ -27,7 +27,7 @@ function CameraFit({ controls }: { controls: React.RefObject<OrbitControlsImpl |
     const cx = (x0 + x1) / 2, cy = (y0 + y1) / 2, cz = (z0 + z1) / 3;
     const r = Math.max(5, Math.hypot(x1 - x0, y1 - y0, z1 - z0) / 2);
     // From the south-south-west and above, the usual way to look at a sun-facing façade.
-    camera.position.set(cx - r * 0.7, cy - r * 1.9, cz + r * 1.1);
+    camera.position.set(cx - r * 0.9, cy - r * 2.5, cz + r * 1.5);
     camera.near = Math.max(0.05, r / 500);
     camera.far = r * 40;
     camera.updateProjectionMatrix();

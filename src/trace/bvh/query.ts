@@ -106,7 +106,7 @@ function occludedImpl(
 ): boolean {
   const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
   if (stack.length < 3 * bvh.depth + 8) ensureStack(bvh.depth);
-  const st = stack;
+  const st = stack, stT = stackT;
   const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
   // near/far plane word offsets per axis from the direction sign (1/-0 = -Infinity counts as negative)
   const nx = ix >= 0 ? 0 : 12, ny = iy >= 0 ? 4 : 16, nz = iz >= 0 ? 8 : 20;
@@ -114,6 +114,7 @@ function occludedImpl(
   let sp = 0;
   let no = 0;
   for (;;) {
+    const base = sp;
     for (let c = no; c < no + 4; c++) {
       let tn = tMin, tf = tMax;
       let a = ((nf[c + nx] as number) - ox) * ix, b = ((nf[c + fx] as number) - ox) * ix;
@@ -124,7 +125,14 @@ function occludedImpl(
       if (a > tn) tn = a; if (b < tf) tf = b;
       if (!(tn <= tf)) continue;
       const w = ni[c + 28] as number;
-      if (w < 0) { st[sp++] = ni[c + 24] as number; continue; }
+      if (w < 0) {
+        // nearest entry on top of the stack: its subtree is the likeliest to block the ray early
+        const child = ni[c + 24] as number;
+        let j = sp++;
+        while (j > base && (stT[j - 1] as number) < tn) { st[j] = st[j - 1] as number; stT[j] = stT[j - 1] as number; j--; }
+        st[j] = child; stT[j] = tn;
+        continue;
+      }
       let s = ni[c + 24] as number;
       const e = s + w;
       for (; s < e; s++) {
