@@ -42,6 +42,16 @@ function ensureStack(depth: number): void {
   }
 }
 
+/**
+ * 1 / d for the slab test, with a zero component mapped to ±1e30 (sign kept) instead of ±Infinity,
+ * so that box · inv − origin · inv stays finite (no Infinity − Infinity = NaN). The slab of such an
+ * axis then spans ±1e30 · (distance to the plane), which is beyond any scene unless the origin lies
+ * within ~1e-27 m of the plane, and the boxes are padded far more than that (layout.ts).
+ */
+function invDir(d: number): number {
+  return d !== 0 ? 1 / d : 1 / d > 0 ? 1e30 : -1e30;
+}
+
 /** A fresh closest-hit slot (allocate once, outside loops). */
 export function makeClosestHit(): ClosestHit {
   return { t: Infinity, triangle: -1, u: 0, v: 0 };
@@ -107,7 +117,8 @@ function occludedImpl(
   const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
   if (stack.length < 3 * bvh.depth + 8) ensureStack(bvh.depth);
   const st = stack, stT = stackT;
-  const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
+  const ix = invDir(dx), iy = invDir(dy), iz = invDir(dz);
+  const oix = ox * ix, oiy = oy * iy, oiz = oz * iz;
   // near/far plane word offsets per axis from the direction sign (1/-0 = -Infinity counts as negative)
   const nx = ix >= 0 ? 0 : 12, ny = iy >= 0 ? 4 : 16, nz = iz >= 0 ? 8 : 20;
   const fx = nx === 0 ? 12 : 0, fy = ny === 4 ? 16 : 4, fz = nz === 8 ? 20 : 8;
@@ -117,11 +128,11 @@ function occludedImpl(
     const base = sp;
     for (let c = no; c < no + 4; c++) {
       let tn = tMin, tf = tMax;
-      let a = ((nf[c + nx] as number) - ox) * ix, b = ((nf[c + fx] as number) - ox) * ix;
+      let a = (nf[c + nx] as number) * ix - oix, b = (nf[c + fx] as number) * ix - oix;
       if (a > tn) tn = a; if (b < tf) tf = b;
-      a = ((nf[c + ny] as number) - oy) * iy; b = ((nf[c + fy] as number) - oy) * iy;
+      a = (nf[c + ny] as number) * iy - oiy; b = (nf[c + fy] as number) * iy - oiy;
       if (a > tn) tn = a; if (b < tf) tf = b;
-      a = ((nf[c + nz] as number) - oz) * iz; b = ((nf[c + fz] as number) - oz) * iz;
+      a = (nf[c + nz] as number) * iz - oiz; b = (nf[c + fz] as number) * iz - oiz;
       if (a > tn) tn = a; if (b < tf) tf = b;
       if (!(tn <= tf)) continue;
       const w = ni[c + 28] as number;
@@ -174,7 +185,8 @@ export function closestT(
   const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
   if (stack.length < 3 * bvh.depth + 8) ensureStack(bvh.depth);
   const st = stack, stT = stackT;
-  const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
+  const ix = invDir(dx), iy = invDir(dy), iz = invDir(dz);
+  const oix = ox * ix, oiy = oy * iy, oiz = oz * iz;
   const nx = ix >= 0 ? 0 : 12, ny = iy >= 0 ? 4 : 16, nz = iz >= 0 ? 8 : 20;
   const fx = nx === 0 ? 12 : 0, fy = ny === 4 ? 16 : 4, fz = nz === 8 ? 20 : 8;
   let best = tMax, bestSlot = -1, bestU = 0, bestV = 0;
@@ -185,11 +197,11 @@ export function closestT(
     const base = sp;
     for (let c = no; c < no + 4; c++) {
       let tn = tMin, tf = best;
-      let a = ((nf[c + nx] as number) - ox) * ix, b = ((nf[c + fx] as number) - ox) * ix;
+      let a = (nf[c + nx] as number) * ix - oix, b = (nf[c + fx] as number) * ix - oix;
       if (a > tn) tn = a; if (b < tf) tf = b;
-      a = ((nf[c + ny] as number) - oy) * iy; b = ((nf[c + fy] as number) - oy) * iy;
+      a = (nf[c + ny] as number) * iy - oiy; b = (nf[c + fy] as number) * iy - oiy;
       if (a > tn) tn = a; if (b < tf) tf = b;
-      a = ((nf[c + nz] as number) - oz) * iz; b = ((nf[c + fz] as number) - oz) * iz;
+      a = (nf[c + nz] as number) * iz - oiz; b = (nf[c + fz] as number) * iz - oiz;
       if (a > tn) tn = a; if (b < tf) tf = b;
       if (!(tn <= tf)) continue;
       const w = ni[c + 28] as number;
