@@ -16,6 +16,7 @@ import type { SceneArrays } from '../../geometry/sceneArrays.ts';
 import { buildPatches, type Patches } from '../../geometry/patches.ts';
 import { sensorGridForPolygon, sensorGridOnSurface } from '../../geometry/zones.ts';
 import { buildBvh, type BvhData } from '../../trace/bvh/build.ts';
+import { canShareMemory } from '../../trace/pool/shareBuffers.ts';
 import { intersectClosest, makeClosestHit } from '../../trace/bvh/query.ts';
 import { resolveMaterial, type Material } from '../../physics/materials.ts';
 import { InputError } from '../../physics/errors.ts';
@@ -120,7 +121,7 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   const sceneForPatches: SceneArrays = { ...scene, materialIds: Uint32Array.from(triMaterial), materialNames: materialLabels.slice() };
   const patches = buildPatches(sceneForPatches, { targetAreaM2: 1 });
   const patchMaterial = Uint16Array.from(patches.materialIds);
-  const bvh = buildBvh(patches.scene.positions, patches.scene.indices, { shared: true });
+  const bvh = buildBvh(patches.scene.positions, patches.scene.indices, { shared: canShareMemory() });
 
   const insideSolid = (x: number, y: number, z: number) => insideByRayParity(bvh, x, y, z);
   const sensors: SensorSet[] = project.zones.map((zone, i) => {

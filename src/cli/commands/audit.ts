@@ -153,6 +153,6 @@ export function formatSummary(s: Summary): string {
     if (hot.length) lines.push(`    hours per seat: ${hot.join(', ')}`);
   }
   for (const m of s.materials) lines.push(`  ${m.material}: peak surface ${m.peakSurfaceTemp?.valueC ?? '—'} °C at ${m.peakSurfaceTemp?.time.slice(11, 16) ?? '—'} (${m.peakSurfaceTemp?.patch ?? ''})`);
-  lines.push('');
+  lines.push('  (screening figures, not a certification: heat stress can harm people — follow local heat guidance; see `sunfacet --help`)', '');
   return lines.join('\n');
 }

@@ -12,7 +12,6 @@
 import type { BvhData } from './build.ts';
 import { InputError } from '../../physics/errors.ts';
 import { isOccluded, isOccludedMasked, closestT, lastSlot } from './query.ts';
-import { NODE_WIDTH, NODE_MIN, NODE_MAX } from './layout.ts';
 
 /** Ranges with fewer rays are traced in the given order. */
 export const SORT_MIN_RAYS = 2048;
@@ -39,14 +38,9 @@ function coherentOrder(bvh: BvhData, rays: Float32Array, start: number, end: num
   if (perm.length < m) {
     keys = new Uint32Array(m); perm = new Uint32Array(m); keysTmp = new Uint32Array(m); permTmp = new Uint32Array(m);
   }
-  // scene box: union of the root's child boxes (layout.ts; unused slots are empty boxes)
   const nf = bvh.nodes;
-  let x0 = Infinity, y0 = Infinity, z0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
-  for (let c = 0; c < NODE_WIDTH; c++) {
-    x0 = Math.min(x0, nf[NODE_MIN + c] as number); y0 = Math.min(y0, nf[NODE_MIN + NODE_WIDTH + c] as number); z0 = Math.min(z0, nf[NODE_MIN + 2 * NODE_WIDTH + c] as number);
-    x1 = Math.max(x1, nf[NODE_MAX + c] as number); y1 = Math.max(y1, nf[NODE_MAX + NODE_WIDTH + c] as number); z1 = Math.max(z1, nf[NODE_MAX + 2 * NODE_WIDTH + c] as number);
-  }
-  const ex = x1 - x0, ey = y1 - y0, ez = z1 - z0;
+  const x0 = nf[0] as number, y0 = nf[1] as number, z0 = nf[2] as number;
+  const ex = (nf[3] as number) - x0, ey = (nf[4] as number) - y0, ez = (nf[5] as number) - z0;
   const sx = ex > 0 ? 1023 / ex : 0, sy = ey > 0 ? 1023 / ey : 0, sz = ez > 0 ? 1023 / ez : 0;
   for (let i = 0; i < m; i++) {
     const o = (start + i) * 6;

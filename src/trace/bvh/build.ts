@@ -1,7 +1,6 @@
 /**
  * BVH build: binned surface-area-heuristic (SAH) split, iterative, on typed-array scratch.
- * The node and triangle layout is in `layout.ts`: the binary tree is built first, then collapsed
- * to 4 children per node (`collapseToWide`).
+ * The node and triangle layout is in `layout.ts`.
  *
  * Method: each node bins its triangles' centroids into `BINS` bins on all three axes (only the
  * longest centroid axis for nodes above `ONE_AXIS_ABOVE` triangles, ≈ 2 % more node visits, a third
@@ -17,14 +16,11 @@
  * M. Pharr, W. Jakob, G. Humphreys, Physically Based Rendering, 4th ed., MIT Press, 2023, §7.3.
  */
 import { InputError } from '../../physics/errors.ts';
-import { NODE_WORDS, NODE_WIDTH, NODE_MIN, NODE_MAX, NODE_CHILD, NODE_COUNT, CHILD_INTERIOR, TRI_FLOATS } from './layout.ts';
-
-/** Words per node of the binary tree built first (box 0..5, left child / first slot, -1-axis / count). */
-const BIN_WORDS = 8;
+import { NODE_WORDS, TRI_FLOATS } from './layout.ts';
 
 /** A built BVH: a plain object of typed arrays (structured-clone / SharedArrayBuffer friendly). */
 export interface BvhData {
-  /** 4-wide nodes: child boxes and words, 32 per node (layout.ts). Same buffer as `nodeInts`. */
+  /** Node boxes and words, 8 per node (layout.ts). Same buffer as `nodeInts`. */
   nodes: Float32Array;
   /** Int32 view of the same buffer as `nodes`: child / slot offsets and counts (layout.ts). */
   nodeInts: Int32Array;
@@ -34,10 +30,9 @@ export interface BvhData {
   triIndex: Uint32Array;
   /** Number of triangles. */
   triangleCount: number;
-  /** Number of (4-wide) nodes. */
+  /** Number of nodes in use. */
   nodeCount: number;
-  /** Longest root-to-leaf path (edges, counting the leaf child); a traversal stack holding up to
-   * 3 entries per level suffices. */
+  /** Longest root-to-leaf path (edges); the traversal stack needs at most this many entries. */
   depth: number;
 }
 
@@ -131,7 +126,7 @@ export function buildBvh(
   }
 
   const maxNodes = n > 0 ? 2 * n : 2;
-  const nf = new Float32Array(maxNodes * BIN_WORDS);
+  const nf = new Float32Array(maxNodes * NODE_WORDS);
   const ni = new Int32Array(nf.buffer);
   nf[0] = rminx; nf[1] = rminy; nf[2] = rminz; nf[3] = rmaxx; nf[4] = rmaxy; nf[5] = rmaxz;
   // Node 1 stays an empty leaf so that every child pair starts at an even index: a pair is then
@@ -157,7 +152,7 @@ export function buildBvh(
   let node = 0, start = 0, end = n, depth = 0;
   for (;;) {
     const count = end - start;
-    const no = node * BIN_WORDS;
+    const no = node * NODE_WORDS;
     let leaf = count <= 1;
     let splitAxis = -1, splitBin = -1;
     let bestCost = Infinity;
@@ -202,7 +197,7 @@ export function buildBvh(
       let rcx0 = Infinity, rcy0 = Infinity, rcz0 = Infinity, rcx1 = -Infinity, rcy1 = -Infinity, rcz1 = -Infinity;
       const left = nodeCount, right = nodeCount + 1;
       nodeCount += 2;
-      const lo = left * BIN_WORDS, ro = right * BIN_WORDS;
+      const lo = left * NODE_WORDS, ro = right * NODE_WORDS;
       let axisOut = 0;
       if (splitAxis >= 0) {
         axisOut = splitAxis;
@@ -259,19 +254,22 @@ export function buildBvh(
     cmaxx = taskF[sp * 6 + 3] as number; cmaxy = taskF[sp * 6 + 4] as number; cmaxz = taskF[sp * 6 + 5] as number;
   }
 
-  // --- boxes padded outward (in place), then the binary tree collapsed into the 4-wide layout ---
+  // --- output arrays (exact size), boxes padded outward ---
+  const nodeBuf = allocBuffer(nodeCount * NODE_WORDS * 4, shared);
+  const nodes = new Float32Array(nodeBuf);
+  const nodeInts = new Int32Array(nodeBuf);
   for (let k = 0; k < nodeCount; k++) {
-    const o = k * BIN_WORDS;
+    const o = k * NODE_WORDS;
     if (n === 0 || k === 1) {
-      nf[o] = Infinity; nf[o + 1] = Infinity; nf[o + 2] = Infinity;
-      nf[o + 3] = -Infinity; nf[o + 4] = -Infinity; nf[o + 5] = -Infinity;
+      nodes[o] = Infinity; nodes[o + 1] = Infinity; nodes[o + 2] = Infinity;
+      nodes[o + 3] = -Infinity; nodes[o + 4] = -Infinity; nodes[o + 5] = -Infinity;
     } else {
-      nf[o] = padDown(nf[o] as number); nf[o + 1] = padDown(nf[o + 1] as number); nf[o + 2] = padDown(nf[o + 2] as number);
-      nf[o + 3] = padUp(nf[o + 3] as number); nf[o + 4] = padUp(nf[o + 4] as number); nf[o + 5] = padUp(nf[o + 5] as number);
+      nodes[o] = padDown(nf[o] as number); nodes[o + 1] = padDown(nf[o + 1] as number); nodes[o + 2] = padDown(nf[o + 2] as number);
+      nodes[o + 3] = padUp(nf[o + 3] as number); nodes[o + 4] = padUp(nf[o + 4] as number); nodes[o + 5] = padUp(nf[o + 5] as number);
     }
+    nodeInts[o + 6] = ni[o + 6] as number;
+    nodeInts[o + 7] = ni[o + 7] as number;
   }
-  if (n === 0) { ni[6] = 0; ni[7] = 0; }
-  const wide = collapseToWide(nf, ni, nodeCount, shared);
   const tris = new Float32Array(allocBuffer(n * TRI_FLOATS * 4, shared));
   const triIndex = new Uint32Array(allocBuffer(n * 4, shared));
   for (let s = 0; s < n; s++) {
@@ -285,77 +283,7 @@ export function buildBvh(
       tris[o + v * 3 + 2] = positions[p + 2] as number;
     }
   }
-  return { nodes: wide.nodes, nodeInts: wide.nodeInts, tris, triIndex, triangleCount: n, nodeCount: wide.nodeCount, depth: wide.depth };
-}
-
-/**
- * Collapses the binary tree (padded boxes in `bf`, words in `bi`, BIN_WORDS per node, root 0) into
- * the 4-wide layout of layout.ts: starting from a node's two children, the interior child with the
- * largest surface area is replaced by its two children until there are 4 (the usual greedy
- * collapse; I. Wald, C. Benthin, S. Boulos, "Getting rid of packets," in Proc. IEEE Symp.
- * Interactive Ray Tracing, 2008, pp. 151–158, doi:10.1109/RT.2008.4634636). The children of one
- * wide node get consecutive node indices. A binary root that is a leaf becomes child 0 of the root.
- */
-function collapseToWide(
-  bf: Float32Array, bi: Int32Array, binaryCount: number, shared: boolean,
-): { nodes: Float32Array; nodeInts: Int32Array; nodeCount: number; depth: number } {
-  // each wide node but the root consumes at least one binary interior node
-  const cap = Math.max(1, binaryCount >> 1);
-  const wf = new Float32Array(cap * NODE_WORDS);
-  const wi = new Int32Array(wf.buffer);
-  const pendNode = new Int32Array(cap), pendBinary = new Int32Array(cap), pendDepth = new Int32Array(cap);
-  const kids = new Int32Array(NODE_WIDTH);
-  let wideCount = 1, sp = 0, maxDepth = 0;
-  pendNode[sp] = 0; pendBinary[sp] = 0; pendDepth[sp] = 0; sp++;
-  while (sp > 0) {
-    sp--;
-    const w = pendNode[sp] as number, b = pendBinary[sp] as number, depth = pendDepth[sp] as number;
-    if (depth > maxDepth) maxDepth = depth;
-    let m: number;
-    if ((bi[b * BIN_WORDS + 7] as number) >= 0) { kids[0] = b; m = 1; } else {
-      const l = bi[b * BIN_WORDS + 6] as number;
-      kids[0] = l; kids[1] = l + 1; m = 2;
-      while (m < NODE_WIDTH) {
-        let pick = -1, bestArea = -1;
-        for (let c = 0; c < m; c++) {
-          const o = (kids[c] as number) * BIN_WORDS;
-          if ((bi[o + 7] as number) >= 0) continue;
-          const dx = (bf[o + 3] as number) - (bf[o] as number), dy = (bf[o + 4] as number) - (bf[o + 1] as number), dz = (bf[o + 5] as number) - (bf[o + 2] as number);
-          const area = dx * dy + dy * dz + dz * dx;
-          if (area > bestArea) { bestArea = area; pick = c; }
-        }
-        if (pick < 0) break;
-        const pl = bi[(kids[pick] as number) * BIN_WORDS + 6] as number;
-        kids[pick] = pl; kids[m++] = pl + 1;
-      }
-    }
-    const wo = w * NODE_WORDS;
-    for (let c = 0; c < NODE_WIDTH; c++) {
-      if (c >= m) {
-        wf[wo + NODE_MIN + c] = Infinity; wf[wo + NODE_MIN + NODE_WIDTH + c] = Infinity; wf[wo + NODE_MIN + 2 * NODE_WIDTH + c] = Infinity;
-        wf[wo + NODE_MAX + c] = -Infinity; wf[wo + NODE_MAX + NODE_WIDTH + c] = -Infinity; wf[wo + NODE_MAX + 2 * NODE_WIDTH + c] = -Infinity;
-        wi[wo + NODE_CHILD + c] = 0; wi[wo + NODE_COUNT + c] = 0;
-        continue;
-      }
-      const k = kids[c] as number, o = k * BIN_WORDS;
-      for (let a = 0; a < 3; a++) {
-        wf[wo + NODE_MIN + a * NODE_WIDTH + c] = bf[o + a] as number;
-        wf[wo + NODE_MAX + a * NODE_WIDTH + c] = bf[o + 3 + a] as number;
-      }
-      const kind = bi[o + 7] as number;
-      if (kind >= 0) {
-        wi[wo + NODE_CHILD + c] = bi[o + 6] as number; wi[wo + NODE_COUNT + c] = kind;
-        if (depth + 1 > maxDepth) maxDepth = depth + 1;
-      } else {
-        const child = wideCount++;
-        wi[wo + NODE_CHILD + c] = child; wi[wo + NODE_COUNT + c] = CHILD_INTERIOR;
-        pendNode[sp] = child; pendBinary[sp] = k; pendDepth[sp] = depth + 1; sp++;
-      }
-    }
-  }
-  const nodes = new Float32Array(allocBuffer(wideCount * NODE_WORDS * 4, shared));
-  nodes.set(wf.subarray(0, wideCount * NODE_WORDS));
-  return { nodes, nodeInts: new Int32Array(nodes.buffer), nodeCount: wideCount, depth: maxDepth };
+  return { nodes, nodeInts, tris, triIndex, triangleCount: n, nodeCount, depth: maxDepth };
 }
 
 /** Bins triangles order[start..end) by centroid on all three axes: counts and boxes per bin. */

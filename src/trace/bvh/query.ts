@@ -9,10 +9,10 @@
  * ray-triangle intersection," J. Graphics Tools, vol. 2, no. 1, pp. 21–28, 1997,
  * doi:10.1080/10867651.1997.10487468.
  *
- * Traversal of the 4-wide tree (layout.ts): iterative with an explicit Int32Array stack; at a node
- * the 4 child boxes (side by side in one 128-byte node) are slab-tested; closest-hit visits hit
- * children nearest entry first and skips popped nodes whose entry distance is beyond the best hit
- * so far.
+ * Traversal: iterative with an explicit Int32Array stack; at an interior node both (adjacent)
+ * child boxes are slab-tested; any-hit visits the near child by the ray's direction sign on the
+ * split axis, closest-hit the one with the smaller entry distance, and skips popped nodes whose
+ * entry distance is beyond the best hit so far.
  */
 import type { BvhData } from './build.ts';
 
@@ -34,22 +34,11 @@ export const DET_EPSILON = 1e-14;
 let stack = new Int32Array(256);
 let stackT = new Float64Array(256);
 
-/** Makes the module stacks hold a traversal of a tree `depth` levels deep (3 entries per level). */
 function ensureStack(depth: number): void {
-  if (stack.length < 3 * depth + 8) {
-    stack = new Int32Array(3 * depth + 64);
-    stackT = new Float64Array(3 * depth + 64);
+  if (stack.length < depth + 4) {
+    stack = new Int32Array(depth + 64);
+    stackT = new Float64Array(depth + 64);
   }
-}
-
-/**
- * 1 / d for the slab test, with a zero component mapped to ±1e30 (sign kept) instead of ±Infinity,
- * so that box · inv − origin · inv stays finite (no Infinity − Infinity = NaN). The slab of such an
- * axis then spans ±1e30 · (distance to the plane), which is beyond any scene unless the origin lies
- * within ~1e-27 m of the plane, and the boxes are padded far more than that (layout.ts).
- */
-function invDir(d: number): number {
-  return d !== 0 ? 1 / d : 1 / d > 0 ? 1e30 : -1e30;
 }
 
 /** A fresh closest-hit slot (allocate once, outside loops). */
@@ -67,7 +56,7 @@ export function makeClosestHit(): ClosestHit {
 export function isOccluded(
   bvh: BvhData, ox: number, oy: number, oz: number, dx: number, dy: number, dz: number, tMin: number, tMax: number,
 ): boolean {
-  return occludedImpl(bvh, ox, oy, oz, dx, dy, dz, tMin, tMax, null);
+  return occludedImpl(bvh, ox, oy, oz, dx, dy, dz, tMin, tMax);
 }
 
 /**
@@ -78,7 +67,7 @@ export function isOccludedMasked(
   bvh: BvhData, ox: number, oy: number, oz: number, dx: number, dy: number, dz: number, tMin: number, tMax: number,
   skip: Uint8Array,
 ): boolean {
-  return occludedImpl(bvh, ox, oy, oz, dx, dy, dz, tMin, tMax, skip);
+  return occludedMaskedImpl(bvh, ox, oy, oz, dx, dy, dz, tMin, tMax, skip);
 }
 
 /**
@@ -105,53 +94,40 @@ export let lastSlot = -1;
 export let lastU = 0;
 export let lastV = 0;
 
-/**
- * Any-hit kernel. At each node the 4 child boxes are slab-tested in turn; a hit leaf's triangles
- * are tested at once (an early way out), hit interior children are pushed. `skip` is null or a
- * per-ORIGINAL-triangle skip flag.
- */
 function occludedImpl(
   bvh: BvhData, ox: number, oy: number, oz: number, dx: number, dy: number, dz: number, tMin: number, tMax: number,
-  skip: Uint8Array | null,
 ): boolean {
-  const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
-  if (stack.length < 3 * bvh.depth + 8) ensureStack(bvh.depth);
-  const st = stack, stT = stackT;
-  const ix = invDir(dx), iy = invDir(dy), iz = invDir(dz);
-  const oix = ox * ix, oiy = oy * iy, oiz = oz * iz;
+  const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris;
+  if (stack.length < bvh.depth + 4) ensureStack(bvh.depth);
+  const st = stack;
+  const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
   // near/far plane word offsets per axis from the direction sign (1/-0 = -Infinity counts as negative)
-  const nx = ix >= 0 ? 0 : 12, ny = iy >= 0 ? 4 : 16, nz = iz >= 0 ? 8 : 20;
-  const fx = nx === 0 ? 12 : 0, fy = ny === 4 ? 16 : 4, fz = nz === 8 ? 20 : 8;
+  const nx = ix >= 0 ? 0 : 3, ny = iy >= 0 ? 1 : 4, nz = iz >= 0 ? 2 : 5;
+  const fxx = nx === 0 ? 3 : 0, fyy = ny === 1 ? 4 : 1, fzz = nz === 2 ? 5 : 2;
+  // root box
+  {
+    let tn = tMin, tf = tMax;
+    let a = ((nf[nx] as number) - ox) * ix, b = ((nf[fxx] as number) - ox) * ix;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[ny] as number) - oy) * iy; b = ((nf[fyy] as number) - oy) * iy;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[nz] as number) - oz) * iz; b = ((nf[fzz] as number) - oz) * iz;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    if (!(tn <= tf)) return false;
+  }
   let sp = 0;
-  let no = 0;
+  let node = 0;
   for (;;) {
-    const base = sp;
-    for (let c = no; c < no + 4; c++) {
-      let tn = tMin, tf = tMax;
-      let a = (nf[c + nx] as number) * ix - oix, b = (nf[c + fx] as number) * ix - oix;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      a = (nf[c + ny] as number) * iy - oiy; b = (nf[c + fy] as number) * iy - oiy;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      a = (nf[c + nz] as number) * iz - oiz; b = (nf[c + fz] as number) * iz - oiz;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      if (!(tn <= tf)) continue;
-      const w = ni[c + 28] as number;
-      if (w < 0) {
-        // nearest entry on top of the stack: its subtree is the likeliest to block the ray early
-        const child = ni[c + 24] as number;
-        let j = sp++;
-        while (j > base && (stT[j - 1] as number) < tn) { st[j] = st[j - 1] as number; stT[j] = stT[j - 1] as number; j--; }
-        st[j] = child; stT[j] = tn;
-        continue;
-      }
-      let s = ni[c + 24] as number;
+    const no = node << 3;
+    const w = ni[no + 7] as number;
+    if (w >= 0) {
+      let s = ni[no + 6] as number;
       const e = s + w;
       for (; s < e; s++) {
-        if (skip !== null && (skip[ti[s] as number] as number) !== 0) continue;
-        const o = s * 9;
-        const ax = tr[o] as number, ay = tr[o + 1] as number, az = tr[o + 2] as number;
-        const e1x = (tr[o + 3] as number) - ax, e1y = (tr[o + 4] as number) - ay, e1z = (tr[o + 5] as number) - az;
-        const e2x = (tr[o + 6] as number) - ax, e2y = (tr[o + 7] as number) - ay, e2z = (tr[o + 8] as number) - az;
+        const b = s * 9;
+        const ax = tr[b] as number, ay = tr[b + 1] as number, az = tr[b + 2] as number;
+        const e1x = (tr[b + 3] as number) - ax, e1y = (tr[b + 4] as number) - ay, e1z = (tr[b + 5] as number) - az;
+        const e2x = (tr[b + 6] as number) - ax, e2y = (tr[b + 7] as number) - ay, e2z = (tr[b + 8] as number) - az;
         const px = dy * e2z - dz * e2y, py = dz * e2x - dx * e2z, pz = dx * e2y - dy * e2x;
         const det = e1x * px + e1y * py + e1z * pz;
         if (det > -DET_EPSILON && det < DET_EPSILON) continue;
@@ -165,62 +141,177 @@ function occludedImpl(
         const t = (e2x * qx + e2y * qy + e2z * qz) * inv;
         if (t >= tMin && t <= tMax) return true;
       }
+    } else {
+      const lo = (ni[no + 6] as number) << 3;
+      const ro = lo + 8;
+      let hitL: boolean, hitR: boolean;
+      {
+        let tn = tMin, tf = tMax;
+        let a = ((nf[lo + nx] as number) - ox) * ix, b = ((nf[lo + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + ny] as number) - oy) * iy; b = ((nf[lo + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + nz] as number) - oz) * iz; b = ((nf[lo + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        hitL = tn <= tf;
+      }
+      {
+        let tn = tMin, tf = tMax;
+        let a = ((nf[ro + nx] as number) - ox) * ix, b = ((nf[ro + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + ny] as number) - oy) * iy; b = ((nf[ro + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + nz] as number) - oz) * iz; b = ((nf[ro + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        hitR = tn <= tf;
+      }
+      const l = lo >> 3;
+      if (hitL) {
+        if (hitR) {
+          const axis = -1 - w;
+          const neg = axis === 0 ? ix < 0 : axis === 1 ? iy < 0 : iz < 0;
+          if (neg) { st[sp++] = l; node = l + 1; } else { st[sp++] = l + 1; node = l; }
+        } else node = l;
+        continue;
+      } else if (hitR) {
+        node = l + 1;
+        continue;
+      }
     }
     if (sp === 0) return false;
-    no = (st[--sp] as number) << 5;
+    node = st[--sp] as number;
+  }
+}
+
+function occludedMaskedImpl(
+  bvh: BvhData, ox: number, oy: number, oz: number, dx: number, dy: number, dz: number, tMin: number, tMax: number,
+  skip: Uint8Array,
+): boolean {
+  const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
+  if (stack.length < bvh.depth + 4) ensureStack(bvh.depth);
+  const st = stack;
+  const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
+  const nx = ix >= 0 ? 0 : 3, ny = iy >= 0 ? 1 : 4, nz = iz >= 0 ? 2 : 5;
+  const fxx = nx === 0 ? 3 : 0, fyy = ny === 1 ? 4 : 1, fzz = nz === 2 ? 5 : 2;
+  {
+    let tn = tMin, tf = tMax;
+    let a = ((nf[nx] as number) - ox) * ix, b = ((nf[fxx] as number) - ox) * ix;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[ny] as number) - oy) * iy; b = ((nf[fyy] as number) - oy) * iy;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[nz] as number) - oz) * iz; b = ((nf[fzz] as number) - oz) * iz;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    if (!(tn <= tf)) return false;
+  }
+  let sp = 0;
+  let node = 0;
+  for (;;) {
+    const no = node << 3;
+    const w = ni[no + 7] as number;
+    if (w >= 0) {
+      let s = ni[no + 6] as number;
+      const e = s + w;
+      for (; s < e; s++) {
+        if ((skip[ti[s] as number] as number) !== 0) continue;
+        const b = s * 9;
+        const ax = tr[b] as number, ay = tr[b + 1] as number, az = tr[b + 2] as number;
+        const e1x = (tr[b + 3] as number) - ax, e1y = (tr[b + 4] as number) - ay, e1z = (tr[b + 5] as number) - az;
+        const e2x = (tr[b + 6] as number) - ax, e2y = (tr[b + 7] as number) - ay, e2z = (tr[b + 8] as number) - az;
+        const px = dy * e2z - dz * e2y, py = dz * e2x - dx * e2z, pz = dx * e2y - dy * e2x;
+        const det = e1x * px + e1y * py + e1z * pz;
+        if (det > -DET_EPSILON && det < DET_EPSILON) continue;
+        const inv = 1 / det;
+        const tx = ox - ax, ty = oy - ay, tz = oz - az;
+        const u = (tx * px + ty * py + tz * pz) * inv;
+        if (u < 0 || u > 1) continue;
+        const qx = ty * e1z - tz * e1y, qy = tz * e1x - tx * e1z, qz = tx * e1y - ty * e1x;
+        const v = (dx * qx + dy * qy + dz * qz) * inv;
+        if (v < 0 || u + v > 1) continue;
+        const t = (e2x * qx + e2y * qy + e2z * qz) * inv;
+        if (t >= tMin && t <= tMax) return true;
+      }
+    } else {
+      const lo = (ni[no + 6] as number) << 3;
+      const ro = lo + 8;
+      let hitL: boolean, hitR: boolean;
+      {
+        let tn = tMin, tf = tMax;
+        let a = ((nf[lo + nx] as number) - ox) * ix, b = ((nf[lo + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + ny] as number) - oy) * iy; b = ((nf[lo + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + nz] as number) - oz) * iz; b = ((nf[lo + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        hitL = tn <= tf;
+      }
+      {
+        let tn = tMin, tf = tMax;
+        let a = ((nf[ro + nx] as number) - ox) * ix, b = ((nf[ro + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + ny] as number) - oy) * iy; b = ((nf[ro + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + nz] as number) - oz) * iz; b = ((nf[ro + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        hitR = tn <= tf;
+      }
+      const l = lo >> 3;
+      if (hitL) {
+        if (hitR) {
+          const axis = -1 - w;
+          const neg = axis === 0 ? ix < 0 : axis === 1 ? iy < 0 : iz < 0;
+          if (neg) { st[sp++] = l; node = l + 1; } else { st[sp++] = l + 1; node = l; }
+        } else node = l;
+        continue;
+      } else if (hitR) {
+        node = l + 1;
+        continue;
+      }
+    }
+    if (sp === 0) return false;
+    node = st[--sp] as number;
   }
 }
 
 /**
  * Closest-hit kernel: returns the best t (Infinity if none) and leaves the slot, u, v in
- * `lastSlot`, `lastU`, `lastV`. `skip` is null or a per-ORIGINAL-triangle skip flag. A hit leaf's
- * triangles are tested at once (shrinking the window for the remaining children); hit interior
- * children are pushed in order of entry distance, nearest on top, and popped entries whose box
- * starts beyond the best hit are dropped.
+ * `lastSlot`, `lastU`, `lastV`. `skip` is null or a per-ORIGINAL-triangle skip flag.
  */
 export function closestT(
   bvh: BvhData, ox: number, oy: number, oz: number, dx: number, dy: number, dz: number, tMin: number, tMax: number,
   skip: Uint8Array | null,
 ): number {
   const nf = bvh.nodes, ni = bvh.nodeInts, tr = bvh.tris, ti = bvh.triIndex;
-  if (stack.length < 3 * bvh.depth + 8) ensureStack(bvh.depth);
+  if (stack.length < bvh.depth + 4) ensureStack(bvh.depth);
   const st = stack, stT = stackT;
-  const ix = invDir(dx), iy = invDir(dy), iz = invDir(dz);
-  const oix = ox * ix, oiy = oy * iy, oiz = oz * iz;
-  const nx = ix >= 0 ? 0 : 12, ny = iy >= 0 ? 4 : 16, nz = iz >= 0 ? 8 : 20;
-  const fx = nx === 0 ? 12 : 0, fy = ny === 4 ? 16 : 4, fz = nz === 8 ? 20 : 8;
+  const ix = 1 / dx, iy = 1 / dy, iz = 1 / dz;
+  const nx = ix >= 0 ? 0 : 3, ny = iy >= 0 ? 1 : 4, nz = iz >= 0 ? 2 : 5;
+  const fxx = nx === 0 ? 3 : 0, fyy = ny === 1 ? 4 : 1, fzz = nz === 2 ? 5 : 2;
   let best = tMax, bestSlot = -1, bestU = 0, bestV = 0;
   lastSlot = -1;
+  {
+    let tn = tMin, tf = tMax;
+    let a = ((nf[nx] as number) - ox) * ix, b = ((nf[fxx] as number) - ox) * ix;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[ny] as number) - oy) * iy; b = ((nf[fyy] as number) - oy) * iy;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    a = ((nf[nz] as number) - oz) * iz; b = ((nf[fzz] as number) - oz) * iz;
+    if (a > tn) tn = a; if (b < tf) tf = b;
+    if (!(tn <= tf)) return Infinity;
+  }
   let sp = 0;
-  let no = 0;
+  let node = 0;
   for (;;) {
-    const base = sp;
-    for (let c = no; c < no + 4; c++) {
-      let tn = tMin, tf = best;
-      let a = (nf[c + nx] as number) * ix - oix, b = (nf[c + fx] as number) * ix - oix;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      a = (nf[c + ny] as number) * iy - oiy; b = (nf[c + fy] as number) * iy - oiy;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      a = (nf[c + nz] as number) * iz - oiz; b = (nf[c + fz] as number) * iz - oiz;
-      if (a > tn) tn = a; if (b < tf) tf = b;
-      if (!(tn <= tf)) continue;
-      const w = ni[c + 28] as number;
-      if (w < 0) {
-        // insert below the nearer entries pushed from this node (at most 3 moves)
-        const child = ni[c + 24] as number;
-        let j = sp++;
-        while (j > base && (stT[j - 1] as number) < tn) { st[j] = st[j - 1] as number; stT[j] = stT[j - 1] as number; j--; }
-        st[j] = child; stT[j] = tn;
-        continue;
-      }
-      let s = ni[c + 24] as number;
+    const no = node << 3;
+    const w = ni[no + 7] as number;
+    if (w >= 0) {
+      let s = ni[no + 6] as number;
       const e = s + w;
       for (; s < e; s++) {
         if (skip !== null && (skip[ti[s] as number] as number) !== 0) continue;
-        const o = s * 9;
-        const ax = tr[o] as number, ay = tr[o + 1] as number, az = tr[o + 2] as number;
-        const e1x = (tr[o + 3] as number) - ax, e1y = (tr[o + 4] as number) - ay, e1z = (tr[o + 5] as number) - az;
-        const e2x = (tr[o + 6] as number) - ax, e2y = (tr[o + 7] as number) - ay, e2z = (tr[o + 8] as number) - az;
+        const b = s * 9;
+        const ax = tr[b] as number, ay = tr[b + 1] as number, az = tr[b + 2] as number;
+        const e1x = (tr[b + 3] as number) - ax, e1y = (tr[b + 4] as number) - ay, e1z = (tr[b + 5] as number) - az;
+        const e2x = (tr[b + 6] as number) - ax, e2y = (tr[b + 7] as number) - ay, e2z = (tr[b + 8] as number) - az;
         const px = dy * e2z - dz * e2y, py = dz * e2x - dx * e2z, pz = dx * e2y - dy * e2x;
         const det = e1x * px + e1y * py + e1z * pz;
         if (det > -DET_EPSILON && det < DET_EPSILON) continue;
@@ -238,6 +329,40 @@ export function closestT(
           best = t; bestSlot = s; bestU = u; bestV = v;
         }
       }
+    } else {
+      const lo = (ni[no + 6] as number) << 3;
+      const ro = lo + 8;
+      let tL: number, tR: number;
+      {
+        let tn = tMin, tf = best;
+        let a = ((nf[lo + nx] as number) - ox) * ix, b = ((nf[lo + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + ny] as number) - oy) * iy; b = ((nf[lo + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[lo + nz] as number) - oz) * iz; b = ((nf[lo + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        tL = tn <= tf ? tn : Infinity;
+      }
+      {
+        let tn = tMin, tf = best;
+        let a = ((nf[ro + nx] as number) - ox) * ix, b = ((nf[ro + fxx] as number) - ox) * ix;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + ny] as number) - oy) * iy; b = ((nf[ro + fyy] as number) - oy) * iy;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        a = ((nf[ro + nz] as number) - oz) * iz; b = ((nf[ro + fzz] as number) - oz) * iz;
+        if (a > tn) tn = a; if (b < tf) tf = b;
+        tR = tn <= tf ? tn : Infinity;
+      }
+      const l = lo >> 3;
+      if (tL !== Infinity) {
+        if (tR !== Infinity) {
+          if (tR < tL) { stT[sp] = tL; st[sp++] = l; node = l + 1; } else { stT[sp] = tR; st[sp++] = l + 1; node = l; }
+        } else node = l;
+        continue;
+      } else if (tR !== Infinity) {
+        node = l + 1;
+        continue;
+      }
     }
     // pop, skipping entries whose box starts beyond the best hit
     for (;;) {
@@ -247,7 +372,7 @@ export function closestT(
         return best;
       }
       --sp;
-      if ((stT[sp] as number) <= best) { no = (st[sp] as number) << 5; break; }
+      if ((stT[sp] as number) <= best) { node = st[sp] as number; break; }
     }
   }
 }
