@@ -117,7 +117,15 @@ describe('viewer (built app in headless Chromium)', () => {
     expect(Number.isFinite(mrtC)).toBe(true);
     expect(mrtC).toBeGreaterThan(-30);
     expect(mrtC).toBeLessThan(100);
+    // The drawn zone sits on the ground (ground z = 0 in the demo), not on the drawn plane below it.
+    expect(await page.locator('fieldset.zone').last().locator('input').nth(1).inputValue()).toBe('0');
     await page.screenshot({ path: join(SHOTS, '06-page-zone-sensor.png') });
+    // Assignments view and IP units, for the record.
+    await page.getByRole('button', { name: 'Colour by material' }).click();
+    await page.getByRole('button', { name: '°F · ft' }).click();
+    await page.waitForTimeout(300);
+    await page.screenshot({ path: join(SHOTS, '06b-page-materials-ip.png') });
+    await page.getByRole('button', { name: '°C · m' }).click();
     expect(problems).toEqual([]);
   }, 150_000);
 

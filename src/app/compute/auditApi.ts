@@ -8,11 +8,19 @@
  * - `runAudit` loads the project from text plus in-memory files (or same-origin fetch) and runs
  *   the audit pipeline; it also returns the patches in the engine frame, for colouring.
  * - `cancel` aborts a running audit by its job id.
+ *
+ * Re-runs: the last run's stage outputs are kept with a key of everything the geometry pass
+ * depends on (model bytes and placement, ground level, zones, sampling, the set of sun directions).
+ * When only materials or weather values changed, the geometry pass is reused (see `planReuse`).
  */
 import { transfer } from 'comlink';
 import { importModel } from '../../geometry/import/index.ts';
 import { loadProject, type ReadRelative } from '../../audit/load.ts';
-import { runAuditWithState, type AuditProgress } from '../../audit/pipeline.ts';
+import { fnv1a32Hex, runAuditWithState, type AuditProgress, type AuditState } from '../../audit/pipeline.ts';
+import type { LoadedProject } from '../../audit/load.ts';
+import { prepareModel, type PreparedModel } from '../../audit/stages/model.ts';
+import { distinctSunDirections } from '../../audit/stages/geometryPass.ts';
+import { canShareMemory } from '../../trace/pool/shareBuffers.ts';
 import type { Patches } from '../../geometry/patches.ts';
 import type { TraceExecutor } from '../../trace/pool/types.ts';
 import { createBrowserWorkerPool } from '../../trace/pool/browserWorkers.ts';
@@ -45,9 +53,18 @@ export interface PatchView {
   patchCount: number;
 }
 
+/** What a run could take over from the previous one. */
+export type ReuseKind = 'none' | 'geometry' | 'model and geometry';
+
 export interface AuditOutcome {
   results: Results;
   patches: PatchView | null;
+  /** What was taken over from the previous run. */
+  reused: ReuseKind;
+  /** Trace workers used for the geometry pass (0 = in the audit worker; also 0 when reused). */
+  traceWorkers: number;
+  /** Stage timings of this run [ms] (pipeline's run record, plus `total`). */
+  timingsMs: Record<string, number>;
 }
 
 /** Files the project can refer to, by path relative to the project file. */
@@ -60,7 +77,10 @@ export interface AuditJob {
   files: FileSet;
   /** Same-origin folder URL to fetch files not in `files` from (the demo folder), or none. */
   baseUrl?: string;
-  /** Trace workers for the pipeline; 0 = in this worker (the default here). */
+  /**
+   * Trace workers for the geometry pass; 0 = in this worker (the default). Used only where shared
+   * memory exists (a cross-origin isolated page); otherwise the trace runs in-process.
+   */
   workers?: number;
 }
 
@@ -108,8 +128,76 @@ export function makeReadRelative(files: FileSet, baseUrl: string | undefined): R
   };
 }
 
+/** The progress stage shown when the previous geometry pass is taken over. */
+export const REUSE_STAGE = 'reusing the geometry pass';
+
+/** Keys of what a run's stages depend on (strings compare exactly). */
+export interface ReuseKeys {
+  /** Model bytes and placement, ground level, zones, sampling. */
+  geometry: string;
+  /** The sun directions and which step uses which. */
+  sun: string;
+  /** Material assignments (surface, default, ground). */
+  materials: string;
+}
+
+export interface CachedRun {
+  keys: ReuseKeys;
+  state: AuditState;
+}
+
+/** Computes the keys of a loaded project (reads the model's bytes through the project's reader). */
+export async function reuseKeys(loaded: LoadedProject): Promise<ReuseKeys> {
+  const p = loaded.project;
+  const bytes = await loaded.readRelative(p.model.file).catch(() => new Uint8Array(0));
+  const geometry = JSON.stringify({
+    file: p.model.file, bytes: bytes.length, hash: fnv1a32Hex(bytes), upAxis: p.model.upAxis, unitsPerMeter: p.model.unitsPerMeter,
+    northDeg: p.site.northDeg, ground: p.ground ? p.ground.z : null, zones: p.zones, sampling: p.sampling,
+  });
+  const steps = buildSteps(p, loaded.weather);
+  const { sunIndexOfStep, directions } = distinctSunDirections(steps);
+  const sun = `${steps.count}:${fnv1a32Hex(new Uint8Array(sunIndexOfStep.buffer))}:${directions.length}:${fnv1a32Hex(new Uint8Array(directions.buffer))}`;
+  const materials = JSON.stringify({ m: p.materials, d: p.defaultMaterial, g: p.ground?.material ?? null });
+  return { geometry, sun, materials };
+}
+
+function sameArray(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
+/** True when two prepared models have the same patches (ids, centroids, normals) and sensors, in the same order. */
+export function sameReceivers(a: PreparedModel, b: PreparedModel): boolean {
+  if (a.patches.count !== b.patches.count || a.sensors.length !== b.sensors.length) return false;
+  for (let i = 0; i < a.patches.count; i++) if (a.patches.ids[i] !== b.patches.ids[i]) return false;
+  if (!sameArray(a.patches.centroids, b.patches.centroids) || !sameArray(a.patches.normals, b.patches.normals)) return false;
+  return a.sensors.every((s, i) => sameArray(s.positions, b.sensors[i]!.positions));
+}
+
+/**
+ * What the next run can take over from the cached one: nothing when the geometry or the sun
+ * directions changed; model and geometry when only weather values changed; the geometry alone when
+ * materials changed too (the model is prepared again, since materials are resolved into it, and
+ * the geometry is taken only if the patches and sensors came out identical: materials split
+ * patches, so a new assignment can change them).
+ */
+export async function planReuse(
+  cached: CachedRun | null,
+  keys: ReuseKeys,
+  loaded: LoadedProject,
+): Promise<{ kind: ReuseKind; reuse?: { model: PreparedModel; geometry: AuditState['geometry'] } }> {
+  if (!cached || cached.keys.geometry !== keys.geometry || cached.keys.sun !== keys.sun) return { kind: 'none' };
+  const { model, geometry } = cached.state;
+  if (cached.keys.materials === keys.materials) return { kind: 'model and geometry', reuse: { model, geometry } };
+  const fresh = await prepareModel(loaded);
+  if (!sameReceivers(fresh, model)) return { kind: 'none' };
+  return { kind: 'geometry', reuse: { model: fresh, geometry } };
+}
+
 export function createAuditApi(): AuditApi {
   const jobs = new Map<number, AbortController>();
+  let cache: CachedRun | null = null;
   return {
     async openModel(bytes, fileName, opts) {
       const scene = await importModel(bytes, fileName, { ...opts, northDeg: 0 });
@@ -138,30 +226,41 @@ export function createAuditApi(): AuditApi {
     async runAudit(jobId, job, onProgress) {
       const ctrl = new AbortController();
       jobs.set(jobId, ctrl);
+      const t0 = performance.now();
       try {
         const read = makeReadRelative(job.files, job.baseUrl);
         const loaded = await loadProject(job.projectText, job.projectFile, read);
         let last = 0;
         let lastStage = '';
-        const workers = job.workers ?? 0;
+        const report = (p: AuditProgress) => {
+          const now = Date.now();
+          // Throttled, but a new stage and the end of a stage always get through.
+          if (p.stage !== lastStage || p.done >= p.total || now - last >= PROGRESS_INTERVAL_MS) {
+            last = now;
+            lastStage = p.stage;
+            void onProgress?.({ stage: p.stage, done: p.done, total: p.total });
+          }
+        };
+        const keys = await reuseKeys(loaded);
+        const plan = await planReuse(cache, keys, loaded);
+        ctrl.signal.throwIfAborted();
+        if (!plan.reuse) cache = null; // frees the old BVH and geometry before a new trace
+        if (plan.reuse) report({ stage: REUSE_STAGE, done: 1, total: 1 });
+        const wanted = job.workers ?? 0;
+        const workers = !plan.reuse && wanted > 0 && canShareMemory() ? wanted : 0;
         const tracer: TraceExecutor | undefined = workers > 0 ? createBrowserWorkerPool({ workers }) : undefined;
         try {
-          const { results, state } = await runAuditWithState(loaded, {
-            ...(tracer ? { tracer } : {}),
-            signal: ctrl.signal,
-            onProgress: (p) => {
-              const now = Date.now();
-              // Throttled, but a new stage and the end of a stage always get through.
-              if (p.stage !== lastStage || p.done >= p.total || now - last >= PROGRESS_INTERVAL_MS) {
-                last = now;
-                lastStage = p.stage;
-                void onProgress?.({ stage: p.stage, done: p.done, total: p.total });
-              }
-            },
-          });
+          const { results, state, record } = await runAuditWithState(
+            loaded,
+            { ...(tracer ? { tracer } : {}), signal: ctrl.signal, onProgress: report },
+            plan.reuse,
+          );
           ctrl.signal.throwIfAborted();
+          cache = { keys, state };
           const patches = patchView(state.model.patches, results);
-          return patches ? transfer({ results, patches }, [patches.positions.buffer, patches.patchOfTriangle.buffer, patches.resultIndex.buffer] as ArrayBuffer[]) : { results, patches };
+          const timingsMs = { ...record.timingsMs, total: Math.round(performance.now() - t0) };
+          const out: AuditOutcome = { results, patches, reused: plan.kind, traceWorkers: workers, timingsMs };
+          return patches ? transfer(out, [patches.positions.buffer, patches.patchOfTriangle.buffer, patches.resultIndex.buffer] as ArrayBuffer[]) : out;
         } finally {
           await tracer?.close();
         }

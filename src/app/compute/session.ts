@@ -10,6 +10,8 @@ import { checkDoc, parseProjectDoc, type ProjectDoc } from '../state/projectDoc.
 import { base64ToBytes, makeSavedState, readAutosave, writeAutosave } from '../state/persist.ts';
 
 const DEMO_FOLDER = 'demo/';
+/** Trace workers when the page is cross-origin isolated. */
+const TRACE_WORKERS = 2;
 const client = new AuditClient();
 let current: RunHandle | null = null;
 
@@ -40,7 +42,9 @@ function job(doc: ProjectDoc): AuditJob {
     projectFile: 'project.json',
     files,
     ...(s.modelSource === 'demo' ? { baseUrl: new URL(DEMO_FOLDER, document.baseURI).href } : {}),
-    workers: 0,
+    // A cross-origin isolated page has shared memory: trace on two Web Workers (the machine's
+    // cores); otherwise inside the audit worker.
+    workers: typeof crossOriginIsolated !== 'undefined' && crossOriginIsolated ? TRACE_WORKERS : 0,
   };
 }
 
@@ -237,7 +241,7 @@ export function startRun(): void {
         viewMode: 'results',
         timeIndex: Math.min(Math.max(0, st.timeIndex), n - 1),
         picked: null,
-        run: { ...st.run, status: 'done', stagesDone: [...st.run.stagesDone, st.run.stage], elapsedS: (Date.now() - st.run.startedMs) / 1000 },
+        run: { ...st.run, status: 'done', stagesDone: [...st.run.stagesDone, st.run.stage], elapsedS: (Date.now() - st.run.startedMs) / 1000, reused: out.reused, traceWorkers: out.traceWorkers },
       });
       if (out.results.warnings.length > 0) notify('info', `The audit finished with ${out.results.warnings.length} note(s): ${out.results.warnings[0]}`);
     },

@@ -20,7 +20,7 @@ export function GroundPlane() {
   }, [modelVersion]);
   const z = (groundZ ?? box.minZ) - SINK_M;
   const onClick = (e: ThreeEvent<MouseEvent>) => {
-    if (addDraftPoint(e)) return;
+    if (addDraftPoint(e, groundZ ?? box.minZ)) return;
   };
   return (
     <mesh position={[box.cx, box.cy, z]} receiveShadow onClick={onClick} name="ground-plane">

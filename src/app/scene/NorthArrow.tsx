@@ -14,7 +14,7 @@ export function NorthArrow() {
   const { at, len } = useMemo(() => {
     const b = heavy.model?.bounds ?? [0, 0, 0, 10, 10, 0];
     const span = Math.max(b[3] - b[0], b[4] - b[1]);
-    const len = Math.max(3, span * 0.12);
+    const len = Math.max(1.5, span * 0.12);
     // South-west of the model, beside the scale figure: the corner the first view looks from.
     return { at: [b[0] - len * 1.1, b[1] + len * 0.6, b[2]] as [number, number, number], len };
     // eslint-disable-next-line react-hooks/exhaustive-deps

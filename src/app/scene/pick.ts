@@ -6,13 +6,16 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useViewer } from '../state/store.ts';
 import { engineFromDisplay } from '../compute/frames.ts';
 
-/** Adds the clicked point (drawn frame) to the zone being drawn, in engine coordinates. */
-export function addDraftPoint(e: ThreeEvent<MouseEvent>): boolean {
+/**
+ * Adds the clicked point (drawn frame) to the zone being drawn, in engine coordinates.
+ * @param floorZM height to use instead of the hit's (the ground plane is drawn a little low)
+ */
+export function addDraftPoint(e: ThreeEvent<MouseEvent>, floorZM?: number): boolean {
   const s = useViewer.getState();
   if (s.tool !== 'drawZone' || !s.doc) return false;
   e.stopPropagation();
   const [x, y] = engineFromDisplay(e.point.x, e.point.y, s.doc.site.northDeg ?? 0);
-  s.set({ draftZone: [...s.draftZone, [round(x), round(y), round(e.point.z)]] });
+  s.set({ draftZone: [...s.draftZone, [round(x), round(y), round(floorZM ?? e.point.z)]] });
   return true;
 }
 

@@ -114,7 +114,7 @@ export function nextZoneName(doc: ProjectDoc, stem = 'zone'): string {
 
 export function addZone(doc: ProjectDoc, zone: ZoneDoc): ProjectDoc {
   const zones = [...(doc.zones ?? [])];
-  const name = zones.some((z) => z.name === zone.name) ? nextZoneName(doc, zone.name) : zone.name;
+  const name = zones.some((z) => z.name === zone.name) ? nextZoneName(doc, zone.name.replace(/\s+\d+$/, '') || 'zone') : zone.name;
   zones.push({ ...zone, name });
   return { ...doc, zones };
 }
@@ -155,6 +155,60 @@ export function setDesignDay(doc: ProjectDoc, dateIso: string): ProjectDoc {
   const hh = String(Math.floor(lastMin / 60)).padStart(2, '0');
   const mm = String(lastMin % 60).padStart(2, '0');
   return { ...doc, period: { start: `${dateIso}T00:00:00${offset}`, end: `${dateIso}T${hh}:${mm}:00${offset}`, stepMinutes: step } };
+}
+
+/** The kind of period a document has: one design day, a range of days, or the weather file's year. */
+export type PeriodKind = 'day' | 'range' | 'year';
+
+export function periodKindOf(doc: ProjectDoc): PeriodKind {
+  if (doc.period === 'year') return 'year';
+  return doc.period.start.slice(0, 10) === doc.period.end.slice(0, 10) ? 'day' : 'range';
+}
+
+/** First and last dates (YYYY-MM-DD) of a date-range period ('' for the year). */
+export function dateRangeOf(doc: ProjectDoc): { startDate: string; endDate: string } {
+  if (doc.period === 'year') return { startDate: '', endDate: '' };
+  return { startDate: doc.period.start.slice(0, 10), endDate: doc.period.end.slice(0, 10) };
+}
+
+function checkDate(dateIso: string, place: string): void {
+  if (!/^\d{4}-\d{2}-\d{2}$/.test(dateIso) || Number.isNaN(Date.parse(`${dateIso}T12:00:00Z`))) {
+    throw new InputError({ problem: 'not a date', place, value: dateIso, expected: 'a date YYYY-MM-DD' });
+  }
+}
+
+/**
+ * Makes the period whole days from `startDate` 00:00 to the last step of `endDate` (site's UTC
+ * offset on each day), keeping the step length.
+ */
+export function setDateRange(doc: ProjectDoc, startDate: string, endDate: string): ProjectDoc {
+  checkDate(startDate, 'first day');
+  checkDate(endDate, 'last day');
+  if (endDate < startDate) throw new InputError({ problem: 'before the first day', place: 'last day', value: endDate, expected: `a date on or after ${startDate}` });
+  const days = (Date.parse(`${endDate}T00:00:00Z`) - Date.parse(`${startDate}T00:00:00Z`)) / 86_400_000;
+  if (days > 365) throw new InputError({ problem: 'longer than a year', place: 'last day', value: endDate, expected: 'at most 366 days; use the whole year of a weather file instead' });
+  const step = doc.period === 'year' ? 60 : doc.period.stepMinutes ?? 60;
+  const off = (d: string) => formatOffset(zoneOffsetMinutes(doc.site.timeZone, Date.parse(`${d}T12:00:00Z`), 'site.timeZone'));
+  const lastMin = 24 * 60 - step;
+  const hh = String(Math.floor(lastMin / 60)).padStart(2, '0');
+  const mm = String(lastMin % 60).padStart(2, '0');
+  return { ...doc, period: { start: `${startDate}T00:00:00${off(startDate)}`, end: `${endDate}T${hh}:${mm}:00${off(endDate)}`, stepMinutes: step } };
+}
+
+/** The whole year of the weather file (the document must use a weather file). */
+export function setWholeYear(doc: ProjectDoc): ProjectDoc {
+  if (doc.weather.source !== 'file') throw new InputError({ problem: 'a whole year needs an hourly weather file', place: 'period', expected: 'open an .epw or .csv weather file first' });
+  return { ...doc, period: 'year' };
+}
+
+/** Weather from a file (path relative to the project file); the period is kept. */
+export function setWeatherFile(doc: ProjectDoc, fileName: string): ProjectDoc {
+  return { ...doc, weather: { source: 'file', file: fileName } };
+}
+
+/** The name of the document's weather file, or null for clear sky. */
+export function weatherFileOf(doc: ProjectDoc): string | null {
+  return doc.weather.source === 'file' ? doc.weather.file : null;
 }
 
 /** Clear-sky weather fields; a file-based weather entry is replaced by clear-sky values. */

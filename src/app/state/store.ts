@@ -25,6 +25,10 @@ export interface RunState {
   message: string;
   /** Wall time of the last finished run [s]. */
   elapsedS: number;
+  /** What the finished run took over from the one before. */
+  reused: 'none' | 'geometry' | 'model and geometry';
+  /** Trace workers of the finished run (0 = traced inside the audit worker). */
+  traceWorkers: number;
 }
 
 export type Picked = { kind: 'sensor'; zone: number; sensor: number } | { kind: 'patch'; patch: number } | null;
@@ -70,7 +74,7 @@ export interface ViewerState {
   setDoc: (doc: ProjectDoc, opts?: { keepResults?: boolean }) => void;
 }
 
-export const initialRun: RunState = { status: 'idle', stage: '', done: 0, total: 0, startedMs: 0, stageStartedMs: 0, stagesDone: [], message: '', elapsedS: 0 };
+export const initialRun: RunState = { status: 'idle', stage: '', done: 0, total: 0, startedMs: 0, stageStartedMs: 0, stagesDone: [], message: '', elapsedS: 0, reused: 'none', traceWorkers: 0 };
 
 export const useViewer = create<ViewerState>()((set) => ({
   doc: null,

@@ -42,7 +42,8 @@ export function RunPanel() {
       )}
       {run.status === 'done' && (
         <p className="small" data-testid="run-done">
-          Finished in {run.elapsedS.toFixed(0)} s.{stale ? ' The project has changed since: run again to update the colours.' : ''}
+          Finished in {run.elapsedS.toFixed(run.elapsedS < 10 ? 1 : 0)} s
+          {run.reused !== 'none' ? ' (reused the geometry pass)' : run.traceWorkers > 0 ? ` (traced on ${run.traceWorkers} workers)` : ''}.{stale ? ' The project has changed since: run again to update the colours.' : ''}
         </p>
       )}
       {run.status === 'cancelled' && <p className="small">Cancelled.</p>}
