@@ -27,6 +27,8 @@ import type { SceneArrays } from './sceneArrays.ts';
 export interface PatchOptions {
   /** Target patch area [m²]. Default 1. */
   targetAreaM2?: number;
+  /** Per surface id, a different target area [m²] (e.g. coarser ground far from the zones). */
+  targetAreaBySurface?: ReadonlyMap<number, number>;
   /** Largest angle between a triangle's normal and its region's normal [deg]. Default 1. */
   coplanarAngleDeg?: number;
   /** Largest distance of a triangle's corners from its region's plane [m]. Default 0.005. */
@@ -170,11 +172,11 @@ export function buildPatches(scene: SceneArrays, opts: PatchOptions = {}): Patch
   const pRegion: number[] = [];
   const perSurfaceCount = new Map<number, number>();
   const ids: string[] = [];
-  const cellSide = Math.sqrt(targetAreaM2);
-
   for (let r = 0; r < regionTris.length; r++) {
     const members = regionTris[r]!;
     const first = members[0]!;
+    const regionTarget = opts.targetAreaBySurface?.get(scene.surfaceIds[first]!) ?? targetAreaM2;
+    const cellSide = Math.sqrt(regionTarget);
     // Region normal: area-weighted.
     let nx = 0, ny = 0, nz = 0, area = 0;
     for (const t of members) {
@@ -209,12 +211,12 @@ export function buildPatches(scene: SceneArrays, opts: PatchOptions = {}): Patch
     }
     const eu = u1 - u0, ev = v1 - v0;
     let nu: number, nv: number;
-    if (area <= targetAreaM2 * 1.5) {
+    if (area <= regionTarget * 1.5) {
       nu = 1; nv = 1;
     } else if (ev < cellSide) {
-      nv = 1; nu = Math.max(1, Math.round((eu * ev) / targetAreaM2));
+      nv = 1; nu = Math.max(1, Math.round((eu * ev) / regionTarget));
     } else if (eu < cellSide) {
-      nu = 1; nv = Math.max(1, Math.round((eu * ev) / targetAreaM2));
+      nu = 1; nv = Math.max(1, Math.round((eu * ev) / regionTarget));
     } else {
       nu = Math.max(1, Math.round(eu / cellSide));
       nv = Math.max(1, Math.round(ev / cellSide));

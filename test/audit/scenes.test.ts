@@ -109,7 +109,7 @@ describe('open flat site (ground only, a 1 m marker box 200 m away)', () => {
    * material and heat balance; the 1 m box 8 m away covers < 0.5 % of its view).
    */
   function openGroundTempC(t: number): number {
-    const cells = r.surfaces.filter((s) => s.surface === 'ground');
+    const cells = r.surfaces.filter((s) => s.surface === 'ground' || s.surface === 'ground-outer');
     let best = cells[0]!;
     const d = (s: (typeof cells)[number]) => Math.hypot(s.centroid[0] - 200.5, s.centroid[1] - 0.5);
     for (const c of cells) if (d(c) > d(best)) best = c;

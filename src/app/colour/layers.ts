@@ -92,25 +92,50 @@ export function sensorValues(
   return out;
 }
 
-/** Automatic range of a surface layer over every step and patch (so colours compare across time). */
-export function surfaceLayerRange(results: Results, layer: SurfaceLayerId): ValueRange | null {
-  function* all(): Iterable<number> {
-    for (const s of results.surfaces) yield* surfaceColumn(layer, s);
+/** Min/max over arrays of numbers, skipping non-finite values (plain loops: a year is tens of millions). */
+function rangeOfColumns(columns: Iterable<readonly number[]>): ValueRange | null {
+  let min = Infinity;
+  let max = -Infinity;
+  for (const col of columns) {
+    for (let i = 0; i < col.length; i++) {
+      const v = col[i]!;
+      if (v < min) min = v;
+      if (v > max) max = v;
+    }
   }
-  return autoRange(all());
+  // NaN fails both comparisons; ±Infinity is not a value the audit writes.
+  if (!(min <= max) || !Number.isFinite(min) || !Number.isFinite(max)) return null;
+  if (min === max) return { min: min - 0.5, max: max + 0.5 };
+  return { min, max };
 }
 
-/** Automatic range of a sensor layer over every step and sensor (0 to the period's length for hours). */
+const rangeCache = new WeakMap<object, Map<string, ValueRange | null>>();
+
+function cached(results: Results, key: string, compute: () => ValueRange | null): ValueRange | null {
+  let m = rangeCache.get(results);
+  if (!m) rangeCache.set(results, (m = new Map()));
+  if (!m.has(key)) m.set(key, compute());
+  return m.get(key)!;
+}
+
+/** Automatic range of a surface layer over every step and patch (so colours compare across time); cached per Results. */
+export function surfaceLayerRange(results: Results, layer: SurfaceLayerId): ValueRange | null {
+  return cached(results, `s:${layer}`, () => rangeOfColumns(results.surfaces.map((s) => surfaceColumn(layer, s))));
+}
+
+/** Automatic range of a sensor layer over every step and sensor (0 to the period's length for hours); cached per Results. */
 export function sensorLayerRange(results: Results, layer: SensorLayerId, categoryId: UtciCategoryId): ValueRange | null {
   if (layer === 'categoryHours') {
     if (sensorCount(results) === 0) return null;
     return { min: 0, max: Math.max(1, results.times.length * stepHoursOf(results)) };
   }
   void categoryId;
-  function* all(): Iterable<number> {
-    for (const z of results.zones) for (const s of z.sensors) yield* layer === 'mrt' ? s.mrtC : s.utciC;
-  }
-  return autoRange(all());
+  return cached(results, `z:${layer}`, () => rangeOfColumns(results.zones.flatMap((z) => z.sensors.map((s) => (layer === 'mrt' ? s.mrtC : s.utciC)))));
+}
+
+/** Range of the values at one step (the "this step's range" legend option); null when all are missing. */
+export function stepRange(values: ArrayLike<number>): ValueRange | null {
+  return autoRange(Array.from(values));
 }
 
 /** Colour shown for a missing value (NaN): a mid grey that is on none of the scales. */

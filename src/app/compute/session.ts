@@ -6,7 +6,7 @@ import { AuditClient, type RunHandle } from './auditClient.ts';
 import type { AuditJob } from './auditApi.ts';
 import { heavy } from '../state/heavy.ts';
 import { initialRun, useViewer } from '../state/store.ts';
-import { checkDoc, parseProjectDoc, type ProjectDoc } from '../state/projectDoc.ts';
+import { checkDoc, parseProjectDoc, setWeatherFile, type ProjectDoc } from '../state/projectDoc.ts';
 import { base64ToBytes, makeSavedState, readAutosave, writeAutosave } from '../state/persist.ts';
 
 const DEMO_FOLDER = 'demo/';
@@ -37,6 +37,7 @@ function job(doc: ProjectDoc): AuditJob {
   const s = useViewer.getState();
   const files: Record<string, Uint8Array> = {};
   if (heavy.modelBytes) files[doc.model.file] = heavy.modelBytes;
+  if (heavy.weatherFile && doc.weather.source === 'file') files[doc.weather.file] = heavy.weatherFile.bytes;
   return {
     projectText: JSON.stringify(doc),
     projectFile: 'project.json',
@@ -108,6 +109,7 @@ export async function startup(): Promise<void> {
       return;
     }
     const bytes = saved.model.kind === 'demo' ? await fetchBytes(demoUrl(saved.doc.model.file)) : base64ToBytes(saved.model.base64);
+    if (saved.weather) heavy.weatherFile = { name: saved.weather.fileName, bytes: base64ToBytes(saved.weather.base64) };
     await showModel(bytes, saved.doc.model.file, saved.doc, saved.model.kind === 'demo' ? 'demo' : 'user');
     notify('info', `Restored your project from ${new Date(saved.savedAt).toLocaleString()}.`);
     startRun();
@@ -120,14 +122,34 @@ export async function startup(): Promise<void> {
 }
 
 const MODEL_RE = /\.(glb|gltf|obj)$/i;
+const WEATHER_RE = /\.(epw|csv)$/i;
+
+/**
+ * Opens an hourly weather file for the project (weather.source "file"); it is read and checked in
+ * the worker (the sun path), so a bad file shows its message without blocking the page.
+ */
+export async function openWeatherFile(file: File): Promise<void> {
+  const s = useViewer.getState();
+  if (!s.doc) {
+    notify('error', 'Open a model or the demo before a weather file.');
+    return;
+  }
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  heavy.weatherFile = { name: file.name, bytes };
+  s.setDoc(setWeatherFile(s.doc, file.name));
+  notify('info', `Weather from ${file.name}. Choose the period: a day, a range of days, or the whole year.`);
+}
 
 /** Opens picked or dropped files: a project .json (with its model), or a model alone. */
 export async function openFiles(files: File[]): Promise<void> {
   const projectFile = files.find((f) => /\.json$/i.test(f.name));
   const modelFile = files.find((f) => MODEL_RE.test(f.name));
+  const weatherFile = files.find((f) => WEATHER_RE.test(f.name));
   const s = useViewer.getState();
+  if (weatherFile) heavy.weatherFile = { name: weatherFile.name, bytes: new Uint8Array(await weatherFile.arrayBuffer()) };
+  if (weatherFile && !projectFile && !modelFile) return openWeatherFile(weatherFile);
   if (!projectFile && !modelFile) {
-    notify('error', `${files.map((f) => f.name).join(', ') || 'nothing'}: not a model or project file; expected a .glb, .gltf or .obj model, or a project .json`);
+    notify('error', `${files.map((f) => f.name).join(', ') || 'nothing'}: not a model, project or weather file; expected a .glb, .gltf or .obj model, a project .json, or an .epw / .csv weather file`);
     return;
   }
   s.set({ busy: `Opening ${(projectFile ?? modelFile)!.name}…` });
@@ -279,8 +301,9 @@ export function refreshSunPath(): void {
         const st = useViewer.getState();
         st.set({ sunPathVersion: st.sunPathVersion + 1, timeIndex: Math.min(st.timeIndex, Math.max(0, sp.times.length - 1)) });
       },
-      () => {
-        // The document's own check shows the message; the old sun path stays.
+      (e: unknown) => {
+        // The document's own check shows most messages; a weather file is read only here.
+        if (doc.weather.source === 'file') notify('error', errorText(e));
       },
     );
   }, 250);
@@ -297,7 +320,12 @@ export function watchAutosave(): () => void {
     saveTimer = setTimeout(() => {
       const st = useViewer.getState();
       if (!st.doc) return;
-      const state = makeSavedState(st.doc, st.modelSource === 'demo' ? { demo: true } : { demo: false, fileName: st.modelFileName, bytes: heavy.modelBytes });
+      const state = makeSavedState(
+        st.doc,
+        st.modelSource === 'demo' ? { demo: true } : { demo: false, fileName: st.modelFileName, bytes: heavy.modelBytes },
+        new Date(),
+        st.doc.weather.source === 'file' && heavy.weatherFile?.name === st.doc.weather.file ? heavy.weatherFile : null,
+      );
       if (!writeAutosave(localStorage, state)) notify('info', 'The browser refused to keep an autosave (storage full?). Use Save project.');
     }, 300);
   });

@@ -4,7 +4,7 @@ import { useThree, type ThreeEvent } from '@react-three/fiber';
 import { Color, InstancedMesh, Matrix4, DoubleSide } from 'three';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
-import { colourValues, sensorCount, sensorLayerRange, sensorValues } from '../colour/layers.ts';
+import { colourValues, sensorCount, sensorLayerRange, sensorValues, stepRange } from '../colour/layers.ts';
 import { effectiveRange, sensorRangeKey } from '../ui/ranges.ts';
 import { addDraftPoint } from './pick.ts';
 
@@ -60,7 +60,7 @@ export function SensorTiles() {
     const im = mesh.current;
     if (!r || !im || !layout || layer === 'none') return;
     const values = sensorValues(r, layer, timeIndex, category);
-    const range = effectiveRange(rangeMode, fixedRanges[sensorRangeKey(layer, category)], sensorLayerRange(r, layer, category));
+    const range = effectiveRange(rangeMode, fixedRanges[sensorRangeKey(layer, category)], sensorLayerRange(r, layer, category), rangeMode === 'step' ? stepRange(values) : null);
     const rgb = colourValues(values, range, scale);
     const c = new Color();
     for (let i = 0; i < layout.n; i++) {

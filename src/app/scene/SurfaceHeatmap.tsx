@@ -4,7 +4,7 @@ import { useThree, type ThreeEvent } from '@react-three/fiber';
 import { BufferAttribute, BufferGeometry, DoubleSide } from 'three';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
-import { colourValues, surfaceLayerRange, surfaceValues, MISSING_RGB } from '../colour/layers.ts';
+import { colourValues, stepRange, surfaceLayerRange, surfaceValues, MISSING_RGB } from '../colour/layers.ts';
 import { srgbToLinearInPlace } from './colourAttr.ts';
 import { addDraftPoint } from './pick.ts';
 import { effectiveRange } from '../ui/ranges.ts';
@@ -36,7 +36,7 @@ export function SurfaceHeatmap() {
     const r = heavy.results;
     if (!geometry || !p || !r || layer === 'none') return;
     const values = surfaceValues(r, layer, timeIndex);
-    const range = effectiveRange(rangeMode, fixedRanges[layer], surfaceLayerRange(r, layer));
+    const range = effectiveRange(rangeMode, fixedRanges[layer], surfaceLayerRange(r, layer), rangeMode === 'step' ? stepRange(values) : null);
     const perResult = colourValues(values, range, scale);
     const attr = geometry.getAttribute('color') as BufferAttribute;
     const out = attr.array as Float32Array;

@@ -13,6 +13,8 @@ export interface HeavyData {
   results: Results | null;
   patches: PatchView | null;
   sunPath: SunPath | null;
+  /** The hourly weather file the project refers to (weather.source "file"). */
+  weatherFile: { name: string; bytes: Uint8Array } | null;
 }
 
-export const heavy: HeavyData = { modelBytes: null, model: null, results: null, patches: null, sunPath: null };
+export const heavy: HeavyData = { modelBytes: null, model: null, results: null, patches: null, sunPath: null, weatherFile: null };

@@ -13,6 +13,8 @@ export interface SavedState {
   doc: ProjectDoc;
   /** Where the model comes from: the demo folder, or bytes kept here. */
   model: { kind: 'demo' } | { kind: 'stored'; fileName: string; base64: string } | { kind: 'missing'; fileName: string };
+  /** The hourly weather file, when the project uses one and it is small enough. */
+  weather?: { fileName: string; base64: string };
   savedAt: string;
 }
 
@@ -37,12 +39,19 @@ export function base64ToBytes(b64: string): Uint8Array {
 }
 
 /** Builds what is saved; a model too big to keep is marked missing (the user re-opens it). */
-export function makeSavedState(doc: ProjectDoc, model: { demo: true } | { demo: false; fileName: string; bytes: Uint8Array | null }, now = new Date()): SavedState {
+export function makeSavedState(
+  doc: ProjectDoc,
+  model: { demo: true } | { demo: false; fileName: string; bytes: Uint8Array | null },
+  now = new Date(),
+  weather: { name: string; bytes: Uint8Array } | null = null,
+): SavedState {
   let m: SavedState['model'];
   if (model.demo) m = { kind: 'demo' };
   else if (model.bytes && model.bytes.byteLength <= MAX_STORED_MODEL_BYTES) m = { kind: 'stored', fileName: model.fileName, base64: bytesToBase64(model.bytes) };
   else m = { kind: 'missing', fileName: model.fileName };
-  return { version: 1, doc, model: m, savedAt: now.toISOString() };
+  const modelBytes = m.kind === 'stored' ? m.base64.length : 0;
+  const w = weather && (weather.bytes.byteLength * 4) / 3 + modelBytes <= (MAX_STORED_MODEL_BYTES * 4) / 3 ? { fileName: weather.name, base64: bytesToBase64(weather.bytes) } : undefined;
+  return { version: 1, doc, model: m, ...(w ? { weather: w } : {}), savedAt: now.toISOString() };
 }
 
 export function writeAutosave(store: KeyValueStore, state: SavedState): boolean {
@@ -52,7 +61,9 @@ export function writeAutosave(store: KeyValueStore, state: SavedState): boolean 
   } catch {
     // Quota exceeded: keep the document at least.
     try {
-      store.setItem(AUTOSAVE_KEY, JSON.stringify({ ...state, model: state.model.kind === 'stored' ? { kind: 'missing', fileName: state.model.fileName } : state.model }));
+      const { weather: _dropped, ...rest } = state;
+      void _dropped;
+      store.setItem(AUTOSAVE_KEY, JSON.stringify({ ...rest, model: state.model.kind === 'stored' ? { kind: 'missing', fileName: state.model.fileName } : state.model }));
       return true;
     } catch {
       return false;

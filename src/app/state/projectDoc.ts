@@ -102,6 +102,40 @@ export function setMaterial(doc: ProjectDoc, key: string, presetId: string | nul
   return { ...doc, materials };
 }
 
+/** Material properties a project may override on a preset (DESIGN §4), all fractions [-]. */
+export const OVERRIDE_FIELDS = ['reflectanceVisible', 'reflectanceNir', 'emissivity'] as const;
+export type OverrideField = (typeof OVERRIDE_FIELDS)[number];
+export type MaterialOverrides = Partial<Record<OverrideField, number>>;
+
+/** The entry of `materials[key]` as preset + overrides, or null when the key has no entry. */
+export function materialEntryOf(doc: ProjectDoc, key: string): { preset: string; overrides: MaterialOverrides } | null {
+  const v = doc.materials?.[key];
+  if (v === undefined) return null;
+  if (typeof v === 'string') return { preset: v, overrides: {} };
+  if (v === null || typeof v !== 'object') return null;
+  const o = v as Record<string, unknown>;
+  const overrides: MaterialOverrides = {};
+  for (const f of OVERRIDE_FIELDS) if (typeof o[f] === 'number') overrides[f] = o[f] as number;
+  return { preset: typeof o.preset === 'string' ? o.preset : 'concrete-light', overrides };
+}
+
+/**
+ * Writes `materials[key]` as `{ preset, ...overrides }` (or the plain preset id when nothing is
+ * overridden). Other keys of an existing object entry are dropped only if they are overrides.
+ */
+export function setMaterialOverrides(doc: ProjectDoc, key: string, preset: string, overrides: MaterialOverrides): ProjectDoc {
+  const clean: MaterialOverrides = {};
+  for (const f of OVERRIDE_FIELDS) {
+    const x = overrides[f];
+    if (x === undefined) continue;
+    if (!(x >= 0 && x <= 1)) throw new InputError({ problem: 'out of range', place: `materials[${JSON.stringify(key)}].${f}`, value: x, expected: 'a fraction from 0 to 1' });
+    clean[f] = x;
+  }
+  const materials = { ...(doc.materials ?? {}) };
+  materials[key] = Object.keys(clean).length === 0 ? preset : { preset, ...clean };
+  return { ...doc, materials };
+}
+
 export function setDefaultMaterial(doc: ProjectDoc, presetId: string): ProjectDoc {
   return { ...doc, defaultMaterial: presetId };
 }

@@ -8,6 +8,7 @@ import type { ScaleId } from '../colour/scales.ts';
 import type { SensorLayerId, SurfaceLayerId } from '../colour/layers.ts';
 import type { UnitSystem } from '../colour/units.ts';
 import type { UtciCategoryId } from '../../physics/utci.ts';
+import type { RangeMode } from '../ui/ranges.ts';
 
 export type Tool = 'look' | 'pickSurface' | 'drawZone';
 export type ViewMode = 'model' | 'materials' | 'results';
@@ -61,7 +62,7 @@ export interface ViewerState {
   scale: ScaleId;
   /** Scale of the zone layer (a different one by default, so the two legends are not confused). */
   sensorScale: ScaleId;
-  rangeMode: 'auto' | 'fixed';
+  rangeMode: RangeMode;
   /** Fixed ranges in SI units, per layer id. */
   fixedRanges: Record<string, { min: number; max: number }>;
   units: UnitSystem;

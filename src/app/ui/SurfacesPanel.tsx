@@ -2,12 +2,18 @@
 import { useMemo } from 'react';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
-import { assignedPreset, setDefaultMaterial, setMaterial } from '../state/projectDoc.ts';
+import { assignedPreset, materialEntryOf, setDefaultMaterial, setMaterial, setMaterialOverrides } from '../state/projectDoc.ts';
 import { MATERIAL_PRESETS, materialPresetIds } from '../../physics/materials.ts';
 import { presetPerSurface, presetsInUse } from '../scene/surfaceTones.ts';
 import { categoryColour, rgbCss } from '../colour/scales.ts';
+import { MaterialEditor } from './MaterialEditor.tsx';
 
 const PRESET_IDS = materialPresetIds();
+
+/** A preset id the lists know ('custom' entries without a preset fall back to the default). */
+function presetIdOf(id: string): string {
+  return MATERIAL_PRESETS[id] ? id : 'concrete-light';
+}
 
 function presetLabel(id: string): string {
   return MATERIAL_PRESETS[id]?.name ?? id;
@@ -61,17 +67,23 @@ export function SurfacesPanel() {
           </p>
           <div className="field">
             <label htmlFor="preset-surface">Preset for this surface</label>
-            <select id="preset-surface" value={a.key === selName ? a.preset : ''} onChange={(e) => setDoc(setMaterial(doc, selName, e.target.value === '' ? null : e.target.value))}>
+            <select id="preset-surface" value={a.key === selName ? presetIdOf(a.preset) : ''} onChange={(e) => setDoc(e.target.value === '' ? setMaterial(doc, selName, null) : setMaterialOverrides(doc, selName, e.target.value, materialEntryOf(doc, selName)?.overrides ?? {}))}>
               <option value="">(follow its material)</option>
               {PRESET_IDS.map((id) => (
                 <option key={id} value={id}>{presetLabel(id)}</option>
               ))}
             </select>
           </div>
+          <MaterialEditor
+            doc={doc}
+            entryKey={a.key ?? selName}
+            fallbackPreset={presetIdOf(a.preset)}
+            what={a.key === null || a.key === selName ? 'this surface' : `every “${a.key}” surface`}
+          />
           {selMat && (
             <div className="field">
               <label htmlFor="preset-material">Preset for every “{selMat}” surface</label>
-              <select id="preset-material" value={typeof doc.materials?.[selMat] === 'string' ? (doc.materials[selMat] as string) : ''} onChange={(e) => setDoc(setMaterial(doc, selMat, e.target.value === '' ? null : e.target.value))}>
+              <select id="preset-material" value={materialEntryOf(doc, selMat)?.preset ?? ''} onChange={(e) => setDoc(e.target.value === '' ? setMaterial(doc, selMat, null) : setMaterialOverrides(doc, selMat, e.target.value, materialEntryOf(doc, selMat)?.overrides ?? {}))}>
                 <option value="">(use the default)</option>
                 {PRESET_IDS.map((id) => (
                   <option key={id} value={id}>{presetLabel(id)}</option>

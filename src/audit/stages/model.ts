@@ -22,6 +22,10 @@ import { resolveMaterial, type Material } from '../../physics/materials.ts';
 import { InputError } from '../../physics/errors.ts';
 
 export const GROUND_SURFACE_NAME = 'ground';
+/** Ground cells farther than NEAR_ZONE_MARGIN_M from every zone: coarser patches (they matter little to a seat). */
+export const GROUND_OUTER_SURFACE_NAME = 'ground-outer';
+export const NEAR_ZONE_MARGIN_M = 6;
+export const GROUND_OUTER_PATCH_M2 = 4;
 /** Margin of the ground apron around the model's footprint [m] (at least this, or half the model's height). */
 export const APRON_MIN_MARGIN_M = 8;
 export const APRON_CELL_M = 1;
@@ -71,7 +75,11 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   const groundZ = project.ground?.z ?? 0;
   if (project.ground) {
     const modelBvh = buildBvh(imported.positions, imported.indices);
-    scene = withGroundApron(imported, modelBvh, groundZ, warnings);
+    const near = project.zones.filter((z) => z.polygon).map((z) => {
+      const xs = z.polygon!.map((p) => p[0]), ys = z.polygon!.map((p) => p[1]);
+      return [Math.min(...xs) - NEAR_ZONE_MARGIN_M, Math.min(...ys) - NEAR_ZONE_MARGIN_M, Math.max(...xs) + NEAR_ZONE_MARGIN_M, Math.max(...ys) + NEAR_ZONE_MARGIN_M] as const;
+    });
+    scene = withGroundApron(imported, modelBvh, groundZ, warnings, near);
   } else {
     warnings.push('no "ground" in the project: rays that leave the model below the horizon see a far ground of stone paving at its own temperature');
   }
@@ -94,7 +102,7 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   const defaultIdx = resolveKey('default', project.defaultMaterial, 'defaultMaterial');
   const usedKeys = new Set<string>();
   const surfaceMaterial = scene.surfaceNames.map((name) => {
-    if (name === GROUND_SURFACE_NAME && project.ground) return groundMaterial;
+    if ((name === GROUND_SURFACE_NAME || name === GROUND_OUTER_SURFACE_NAME) && project.ground) return groundMaterial;
     if (project.materials[name] !== undefined) {
       usedKeys.add(name);
       return resolveKey('m:' + name, project.materials[name]!, `materials[${JSON.stringify(name)}]`);
@@ -119,7 +127,8 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   }
   // Patches carry material ids per triangle: give the scene our resolved ids.
   const sceneForPatches: SceneArrays = { ...scene, materialIds: Uint32Array.from(triMaterial), materialNames: materialLabels.slice() };
-  const patches = buildPatches(sceneForPatches, { targetAreaM2: 1 });
+  const outer = scene.surfaceNames.indexOf(GROUND_OUTER_SURFACE_NAME);
+  const patches = buildPatches(sceneForPatches, { targetAreaM2: 1, ...(outer >= 0 && project.ground ? { targetAreaBySurface: new Map([[outer, GROUND_OUTER_PATCH_M2]]) } : {}) });
   const patchMaterial = Uint16Array.from(patches.materialIds);
   const bvh = buildBvh(patches.scene.positions, patches.scene.indices, { shared: canShareMemory() });
 
@@ -169,8 +178,12 @@ export function insideByRayParity(bvh: BvhData, x: number, y: number, z: number)
   return votes >= 2;
 }
 
-/** Adds 1 m ground cells under and around the model, leaving out cells inside solids. */
-function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number, warnings: string[]): SceneArrays {
+/**
+ * Adds 1 m ground cells under and around the model, leaving out cells inside solids. Cells near a
+ * zone (inside one of `near`, boxes [x0, y0, x1, y1]) form the surface "ground", the rest
+ * "ground-outer" (patched more coarsely).
+ */
+function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number, warnings: string[], near: readonly (readonly [number, number, number, number])[]): SceneArrays {
   const p = scene.positions;
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
   for (let i = 0; i < p.length; i += 3) {
@@ -203,13 +216,18 @@ function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number,
   const materialIds = new Uint32Array(scene.materialIds.length + cells * 2);
   materialIds.set(scene.materialIds);
   let surfaceNames = scene.surfaceNames;
-  let groundSurface = surfaceNames.indexOf(GROUND_SURFACE_NAME);
-  if (groundSurface < 0) {
-    surfaceNames = [...surfaceNames, GROUND_SURFACE_NAME];
-    groundSurface = surfaceNames.length - 1;
-  } else {
-    warnings.push(`the model has a surface named "${GROUND_SURFACE_NAME}"; the ground apron joins it`);
-  }
+  const surfaceFor = (name: string): number => {
+    let id = surfaceNames.indexOf(name);
+    if (id < 0) {
+      surfaceNames = [...surfaceNames, name];
+      id = surfaceNames.length - 1;
+    } else {
+      warnings.push(`the model has a surface named "${name}"; the ground apron joins it`);
+    }
+    return id;
+  };
+  const groundSurface = surfaceFor(GROUND_SURFACE_NAME);
+  const outerSurface = surfaceFor(GROUND_OUTER_SURFACE_NAME);
   const materialNames = [...scene.materialNames, GROUND_SURFACE_NAME];
   const groundMat = materialNames.length - 1;
   for (let k = 0; k < cells; k++) {
@@ -218,8 +236,10 @@ function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number,
     const v = vBase + 4 * k;
     positions.set([ax, ay, groundZ, ax + c, ay, groundZ, ax + c, ay + c, groundZ, ax, ay + c, groundZ], 3 * v);
     indices.set([v, v + 1, v + 2, v, v + 2, v + 3], scene.indices.length + 6 * k);
-    surfaceIds[scene.surfaceIds.length + 2 * k] = groundSurface;
-    surfaceIds[scene.surfaceIds.length + 2 * k + 1] = groundSurface;
+    const cx = ax + c / 2, cy = ay + c / 2;
+    const isNear = near.some((b) => cx >= b[0] && cx <= b[2] && cy >= b[1] && cy <= b[3]);
+    surfaceIds[scene.surfaceIds.length + 2 * k] = isNear ? groundSurface : outerSurface;
+    surfaceIds[scene.surfaceIds.length + 2 * k + 1] = isNear ? groundSurface : outerSurface;
     materialIds[scene.materialIds.length + 2 * k] = groundMat;
     materialIds[scene.materialIds.length + 2 * k + 1] = groundMat;
   }

@@ -144,15 +144,18 @@ export async function auditToFolder(file: string, outDir: string, io: CliIo, opt
 /** A few lines a person reads after a run. */
 export function formatSummary(s: Summary): string {
   const lines: string[] = [`${s.project}`];
+  // Within one day the clock time says enough; over several days show the date too.
+  const oneDay = (s.period.first ?? '').slice(0, 10) === (s.period.last ?? '').slice(0, 10);
+  const when = (t: string | undefined) => (t === undefined ? '—' : oneDay ? t.slice(11, 16) : t.slice(0, 16).replace('T', ' '));
   for (const z of s.zones) {
     const hot = z.categoryHours.filter((c) => c.meanHours > 0 && /heat/.test(c.id)).map((c) => `${c.label} ${c.meanHours} h`);
     lines.push(
-      `  ${z.name}: ${z.sensors} sensors; peak MRT ${z.peakMrt?.valueC ?? '—'} °C at ${z.peakMrt?.time.slice(11, 16) ?? '—'}; ` +
-        `peak UTCI ${z.peakUtci?.valueC ?? '—'} °C at ${z.peakUtci?.time.slice(11, 16) ?? '—'}`,
+      `  ${z.name}: ${z.sensors} sensors; peak MRT ${z.peakMrt?.valueC ?? '—'} °C at ${when(z.peakMrt?.time)}; ` +
+        `peak UTCI ${z.peakUtci?.valueC ?? '—'} °C at ${when(z.peakUtci?.time)}`,
     );
     if (hot.length) lines.push(`    hours per seat: ${hot.join(', ')}`);
   }
-  for (const m of s.materials) lines.push(`  ${m.material}: peak surface ${m.peakSurfaceTemp?.valueC ?? '—'} °C at ${m.peakSurfaceTemp?.time.slice(11, 16) ?? '—'} (${m.peakSurfaceTemp?.patch ?? ''})`);
+  for (const m of s.materials) lines.push(`  ${m.material}: peak surface ${m.peakSurfaceTemp?.valueC ?? '—'} °C at ${when(m.peakSurfaceTemp?.time)} (${m.peakSurfaceTemp?.patch ?? ''})`);
   lines.push('  (screening figures, not a certification: heat stress can harm people — follow local heat guidance; see `sunfacet --help`)', '');
   return lines.join('\n');
 }
