@@ -46,7 +46,7 @@ export const NASTY_NUMBERS: unknown[] = [NaN, Infinity, -Infinity, 1e308, -1e308
 
 export function mutateBytes(r: Rand, input: Uint8Array): Uint8Array {
   const b = new Uint8Array(input);
-  const n = 1 + int(r, 4);
+  const n = r() < 0.5 ? 1 : 1 + int(r, 4);
   let out: Uint8Array = b;
   for (let k = 0; k < n; k++) out = mutateBytesOnce(r, out);
   return out;
@@ -110,7 +110,7 @@ const NUMBER_TOKEN = /[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?/g;
 /** Line-level and token-level mutations of a text file; `sep` splits fields (',' or whitespace). */
 export function mutateText(r: Rand, text: string, sep: RegExp = /,/): string {
   let lines = text.split('\n');
-  const n = 1 + int(r, 4);
+  const n = r() < 0.5 ? 1 : 1 + int(r, 4);
   for (let k = 0; k < n; k++) lines = mutateLinesOnce(r, lines, sep);
   let out = lines.join('\n');
   if (r() < 0.1) out = out.replace(/\n/g, pick(r, ['\r\n', '\r']));
@@ -178,7 +178,7 @@ const SWAPS: unknown[] = [null, true, false, 0, -1, '', 'x', '2.0', [], {}, [0, 
 /** Structural mutations of a parsed JSON value; returns the new JSON text (sometimes broken text). */
 export function mutateJson(r: Rand, text: string): string {
   let root: unknown = JSON.parse(text);
-  const n = 1 + int(r, 3);
+  const n = r() < 0.6 ? 1 : 1 + int(r, 3);
   for (let k = 0; k < n; k++) root = mutateJsonOnce(r, root);
   const out = JSON.stringify(root, (_k, v: unknown) => (typeof v === 'number' && !Number.isFinite(v) ? `__NUM${String(v)}__` : v));
   // Non-finite numbers as raw tokens (invalid JSON on purpose) or 1e999-style overflows.

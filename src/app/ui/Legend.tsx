@@ -2,6 +2,7 @@
 import { niceStep, niceTicks, tickDecimals, type ValueRange } from '../colour/legend.ts';
 import { scaleGradientCss, type ScaleId } from '../colour/scales.ts';
 import { fromSI, unitLabel, type Quantity, type UnitSystem } from '../colour/units.ts';
+import type { RangeMode } from './ranges.ts';
 
 export interface LegendProps {
   title: string;
@@ -9,7 +10,7 @@ export interface LegendProps {
   range: ValueRange;
   scale: ScaleId;
   units: UnitSystem;
-  rangeMode: 'auto' | 'fixed';
+  rangeMode: RangeMode;
   testId?: string;
 }
 
@@ -22,7 +23,7 @@ export function Legend({ title, quantity, range, scale, units, rangeMode, testId
   return (
     <figure className="legend" data-testid={testId} aria-label={`${title} legend, ${lo.toFixed(d)} to ${hi.toFixed(d)} ${unit}`}>
       <figcaption>
-        {title} {unit && <span className="unit">[{unit}]</span>} <span className="muted small">({rangeMode === 'auto' ? 'range from the results' : 'fixed range'})</span>
+        {title} {unit && <span className="unit">[{unit}]</span>} <span className="muted small">({rangeMode === 'auto' ? 'range over the period' : rangeMode === 'step' ? 'range at this time step' : 'fixed range'})</span>
       </figcaption>
       <div className="legend-bar" style={{ background: scaleGradientCss(scale) }} />
       <div className="legend-ticks" aria-hidden="true">

@@ -1,7 +1,7 @@
 /** What the colours show: layer for surfaces and for zones, scales, range, legends, and the picked item. */
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
-import { SENSOR_LAYERS, SURFACE_LAYERS, sensorLayerRange, surfaceLayerRange, type SensorLayerId, type SurfaceLayerId } from '../colour/layers.ts';
+import { SENSOR_LAYERS, SURFACE_LAYERS, sensorLayerRange, sensorValues, stepRange, surfaceLayerRange, surfaceValues, type SensorLayerId, type SurfaceLayerId } from '../colour/layers.ts';
 import { SCALE_IDS, type ScaleId } from '../colour/scales.ts';
 import { fromSI, toSI, unitLabel } from '../colour/units.ts';
 import { UTCI_CATEGORIES, type UtciCategoryId } from '../../physics/utci.ts';
@@ -22,6 +22,8 @@ export function ResultsPanel() {
   const fixedRanges = useViewer((s) => s.fixedRanges);
   const units = useViewer((s) => s.units);
   const set = useViewer((s) => s.set);
+  // Only the step's own range needs a re-render per step.
+  const stepIndex = useViewer((s) => (s.rangeMode === 'step' ? s.timeIndex : -1));
   const r = heavy.results;
   if (resultsVersion === 0 || !r) {
     return (
@@ -37,8 +39,11 @@ export function ResultsPanel() {
   const zAuto = sensorLayer !== 'none' ? sensorLayerRange(r, sensorLayer, category) : null;
   const sKey = surfaceLayer;
   const zKey = sensorLayer !== 'none' ? sensorRangeKey(sensorLayer, category) : 'none';
-  const sRange = effectiveRange(rangeMode, fixedRanges[sKey], sAuto);
-  const zRange = effectiveRange(rangeMode, fixedRanges[zKey], zAuto);
+  const sStep = stepIndex >= 0 && surfaceLayer !== 'none' ? stepRange(surfaceValues(r, surfaceLayer, stepIndex)) : null;
+  const zStep = stepIndex >= 0 && sensorLayer !== 'none' && sensorLayer !== 'categoryHours' ? stepRange(sensorValues(r, sensorLayer, stepIndex, category)) : null;
+  const sRange = effectiveRange(rangeMode, fixedRanges[sKey], sAuto, sStep);
+  const zRange = effectiveRange(rangeMode, fixedRanges[zKey], zAuto, zStep);
+  const zMode = rangeMode === 'step' && !zStep ? 'auto' : rangeMode;
   const catLabel = UTCI_CATEGORIES.find((c) => c.id === category)?.label ?? category;
   const setFixed = (key: string, q: import('../colour/units.ts').Quantity, cur: { min: number; max: number }, which: 'min' | 'max', shown: number) => {
     const v = toSI(q, shown, units);
@@ -94,9 +99,10 @@ export function ResultsPanel() {
           </select>
         </div>
       </div>
-      <div className="segmented" role="group" aria-label="Legend range">
-        <button type="button" aria-pressed={rangeMode === 'auto'} onClick={() => set({ rangeMode: 'auto' })}>Range from results</button>
-        <button type="button" aria-pressed={rangeMode === 'fixed'} onClick={() => set({ rangeMode: 'fixed', fixedRanges: { ...fixedRanges, ...(fixedRanges[sKey] || !sAuto ? {} : { [sKey]: sAuto }), ...(fixedRanges[zKey] || !zAuto ? {} : { [zKey]: zAuto }) } })}>Fixed range</button>
+      <div className="segmented" role="group" aria-label="Colour range">
+        <button type="button" aria-pressed={rangeMode === 'auto'} onClick={() => set({ rangeMode: 'auto' })} title="One range over the whole period, so colours compare across time">Whole period</button>
+        <button type="button" aria-pressed={rangeMode === 'step'} onClick={() => set({ rangeMode: 'step' })} title="The range of the values at the time shown: more contrast, but colours do not compare across time">This time step</button>
+        <button type="button" aria-pressed={rangeMode === 'fixed'} onClick={() => set({ rangeMode: 'fixed', fixedRanges: { ...fixedRanges, ...(fixedRanges[sKey] || !sAuto ? {} : { [sKey]: sAuto }), ...(fixedRanges[zKey] || !zAuto ? {} : { [zKey]: zAuto }) } })}>Fixed</button>
       </div>
       {viewMode === 'results' && sInfo && (
         <>
@@ -111,7 +117,7 @@ export function ResultsPanel() {
       )}
       {viewMode === 'results' && zInfo && (
         <>
-          <Legend title={zInfo.id === 'categoryHours' ? `Zones: hours of ${catLabel}` : `Zones: ${zInfo.label}`} quantity={zInfo.quantity} range={zRange} scale={sensorScale} units={units} rangeMode={rangeMode} testId="legend-zones" />
+          <Legend title={zInfo.id === 'categoryHours' ? `Zones: hours of ${catLabel}` : `Zones: ${zInfo.label}`} quantity={zInfo.quantity} range={zRange} scale={sensorScale} units={units} rangeMode={zMode} testId="legend-zones" />
           {rangeMode === 'fixed' && (
             <div className="row">
               <NumberField label="from" unit={unitLabel(zInfo.quantity, units)} value={fromSI(zInfo.quantity, zRange.min, units)} digits={1} onCommit={(v) => setFixed(zKey, zInfo.quantity, zRange, 'min', v)} />
