@@ -19,12 +19,33 @@ function isTyping(e: KeyboardEvent): boolean {
   return !!t && (t.tagName === 'INPUT' || t.tagName === 'SELECT' || t.tagName === 'TEXTAREA') && (t as HTMLInputElement).type !== 'range';
 }
 
+/** Overlays of the view that are not results: the sun path. */
+function ViewOptions() {
+  const showSunPath = useViewer((s) => s.showSunPath);
+  const showSolstices = useViewer((s) => s.showSolstices);
+  const set = useViewer((s) => s.set);
+  return (
+    <div className="view-options" role="group" aria-label="View overlays">
+      <label>
+        <input type="checkbox" checked={showSunPath} onChange={(e) => set({ showSunPath: e.target.checked })} /> Sun path
+      </label>
+      <label>
+        <input type="checkbox" checked={showSolstices} disabled={!showSunPath} onChange={(e) => set({ showSolstices: e.target.checked })} /> with solstices
+      </label>
+    </div>
+  );
+}
+
 function ToolHint() {
   const tool = useViewer((s) => s.tool);
   if (tool === 'look') return null;
   return (
     <div className="tool-hint" role="status">
-      {tool === 'drawZone' ? 'Drawing a zone: click corners on a floor or roof · Enter finishes · Esc cancels' : 'Click a surface to choose its material · Esc ends'}
+      {tool === 'drawZone'
+        ? 'Drawing a zone: click corners on a floor or roof · Enter finishes · Esc cancels'
+        : tool === 'editZone'
+          ? 'Editing a zone: click a corner handle, then click where it goes · Esc ends'
+          : 'Click a surface to choose its material · Esc ends'}
     </div>
   );
 }
@@ -36,7 +57,8 @@ export function App() {
       const s = useViewer.getState();
       if (e.key === 'Escape') {
         if (s.aboutOpen) return; // the dialog closes itself
-        if (s.tool !== 'look') s.set({ tool: 'look', draftZone: [] });
+        if (s.tool === 'editZone' && s.editCorner && s.editCorner.corner >= 0) s.set({ editCorner: { ...s.editCorner, corner: -1 } });
+        else if (s.tool !== 'look') s.set({ tool: 'look', draftZone: [], editCorner: null });
         else if (s.run.status === 'running') cancelRun();
         else if (s.picked) s.set({ picked: null });
         return;
@@ -75,6 +97,7 @@ export function App() {
         <Viewport />
         <ToolHint />
         <NoticeBar />
+        <ViewOptions />
         {dragging && <div className="drop-hint">Drop a .glb, .gltf or .obj model, or a project .json with its model</div>}
       </main>
       <aside className="right" aria-label="Results">

@@ -13,6 +13,7 @@ import { encodeGeometryPartial, decodeGeometryPartial, mergeGeometry, type Parti
 import { sensorPoints } from './stages/geometryPass.ts';
 import { InputError } from '../physics/errors.ts';
 import { runTimeSteps, type TimeStepOutput } from './stages/timeStep.ts';
+import { glareStage, GLARE_CATEGORIES, GLARE_CRITERION, GLARE_CAUTION, GLARE_HOURS_FROM, DEFAULT_GLARE_FIELD_DEG, type GlareData } from './stages/glare.ts';
 import type { TraceExecutor } from '../trace/pool/types.ts';
 import { createInProcessExecutor } from '../trace/pool/workerPool.ts';
 
@@ -74,14 +75,18 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
     if (!opts.tracer) await tracer.close();
   }
   abort();
+  // Reflected sun (glare.ts): traced before the time stepping, whose MRT takes its beams.
+  progress('reflected sun', 0, 1);
+  const glare = glareStage(model, steps, geometry, loaded.project.viewpoints ?? []);
+  abort();
   const tHeat = performance.now();
-    const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total));
+    const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total), glare.sensorBeamTermWm2);
   const tEnd = performance.now();
-  const results = assembleResults(loaded, model, steps, geometry, ts);
+  const results = assembleResults(loaded, model, steps, geometry, ts, glare);
   const record: RunRecord = {
     date: (opts.now ?? (() => new Date()))().toISOString(),
     workers: tracer.workerCount,
-    timingsMs: { ...geometry.timings, prepare: Math.round(tGeo - t0), geometryPass: Math.round(tHeat - tGeo), timeStepping: Math.round(tEnd - tHeat) },
+    timingsMs: { ...geometry.timings, prepare: Math.round(tGeo - t0), geometryPass: Math.round(tHeat - tGeo - glare.timingMs), glare: glare.timingMs, timeStepping: Math.round(tEnd - tHeat) },
   };
   return { results, state: { model, steps, geometry }, record };
 }
@@ -106,6 +111,7 @@ function assembleResults(
   steps: Steps,
   geo: GeometryData,
   ts: TimeStepOutput,
+  glare: GlareData,
 ): Results {
   const T = steps.count;
   const p = model.patches;
@@ -139,6 +145,9 @@ function assembleResults(
         mrtC: Array.from(ts.mrtC.subarray(o, o + T), r2),
         utciC: Array.from(ts.utciC.subarray(o, o + T), r2),
         category: ts.category[k]!,
+        reflectedBeamWm2: Array.from(glare.reflectedWm2.subarray(o, o + T), r1),
+        glare: Array.from(glare.glare.subarray(o, o + T), (c) => GLARE_CATEGORIES[c]!.id),
+        reflectingPatches: Array.from(glare.reflectingPatches.subarray(o, o + T)),
       });
     }
     zones.push({ name: set.zone.name, posture: set.zone.posture, sensorHeightM: set.zone.sensorHeightM, sensors, droppedSensors: set.dropped });
@@ -151,6 +160,10 @@ function assembleResults(
   }
   if (ts.stats.unconvergedSteps > 0) {
     warnings.push(`surface temperatures did not settle within 0.1 K in ${ts.stats.unconvergedSteps} steps after the maximum number of longwave passes`);
+  }
+  if (glare.concentration.length > 0) {
+    const c = glare.concentration[0]!;
+    warnings.push(`reflections from several mirror patches exceed the direct normal irradiance at ${glare.concentration.length} points (a focusing façade); the worst: ${c.peakWm2} W/m² against a DNI of ${c.dniWm2} W/m² at ${c.kind === 'sensor' ? `zone "${c.where}" sensor ${c.sensor}` : `ground cell ${c.where}`}, ${steps.labels[c.step]}`);
   }
   const pr = loaded.project;
   return {
@@ -170,6 +183,31 @@ function assembleResults(
     },
     zones,
     surfaces,
+    glare: {
+      categories: GLARE_CATEGORIES.map((c) => ({ id: c.id, label: c.label, description: c.description })),
+      criterion: GLARE_CRITERION,
+      zoneFieldDeg: DEFAULT_GLARE_FIELD_DEG,
+      glareHoursFrom: GLARE_HOURS_FROM,
+      mirrorPatches: glare.mirrorPatches,
+      caution: GLARE_CAUTION,
+    },
+    viewpoints: glare.viewpoints.map((v, i) => {
+      const o = (glare.sensorCount + i) * T;
+      return {
+        name: v.name,
+        position: v.position,
+        viewDirectionDeg: v.viewDirectionDeg ?? null,
+        fieldDeg: v.fieldDeg,
+        reflectedBeamWm2: Array.from(glare.reflectedWm2.subarray(o, o + T), r1),
+        glare: Array.from(glare.glare.subarray(o, o + T), (c) => GLARE_CATEGORIES[c]!.id),
+        reflectingPatches: Array.from(glare.reflectingPatches.subarray(o, o + T)),
+      };
+    }),
+    reflectionPaths: {
+      step: glare.paths.step, patch: glare.paths.patch, zone: glare.paths.zone, receiver: glare.paths.receiver,
+      point: glare.paths.point, irradianceWm2: glare.paths.irradianceWm2, discFraction: glare.paths.discFraction, offAxisDeg: glare.paths.offAxisDeg,
+    },
+    concentration: glare.concentration.slice(0, 200).map(({ step, ...c }) => ({ ...c, time: steps.labels[step]! })),
     warnings,
     run: {
       software: `sunfacet ${SOFTWARE_VERSION}`,
@@ -195,7 +233,8 @@ function assembleResults(
         skyLongwave: 'weather file horizontal infrared, else Berdahl & Martin 1984',
         mrt: 'six-directional (VDI 3787-2; Thorsson et al. 2007), α 0.7, ε 0.97',
         utci: 'Bröde et al. 2012 operational polynomial, inputs clamped to its validity',
-        reflection: `diffuse, ${2} bounces, two bands (ASTM G173 split)`,
+        reflection: `diffuse part ρ·(1 − specularFraction), ${2} bounces, two bands (ASTM G173 split); specular part traced to sensors as beams (glazing: Fresnel pane stack, Duffie & Beckman 5.1; water: Fresnel interface; metal and paint: Schlick 1994)`,
+        glare: GLARE_CRITERION,
       },
     },
   };

@@ -62,9 +62,30 @@ export interface Project {
   period: PeriodSpec;
   weather: WeatherSpec;
   sampling: SamplingSpec;
+  /** Points with a view (a driver on the lane, a window across the street) that get a glare count. */
+  viewpoints: ViewpointSpec[];
 }
 
-const TOP_KEYS = ['sunfacet', 'name', 'notes', 'site', 'model', 'materials', 'defaultMaterial', 'ground', 'zones', 'period', 'weather', 'sampling'] as const;
+/**
+ * A project viewpoint (key `viewpoints`): an eye position with an optional horizontal view
+ * direction. Glare is counted when the reflected sun lies within `fieldDeg` of the line of sight:
+ * of the view direction when given, else of the nearest horizontal direction (a person who turns
+ * around). See src/audit/stages/glare.ts.
+ */
+export interface ViewpointSpec {
+  name: string;
+  /** Eye position [m], engine coordinates (x east, y north, z up; after north rotation). */
+  position: [number, number, number];
+  /** Azimuth of the horizontal line of sight [°], clockwise from north; absent = all around. */
+  viewDirectionDeg?: number;
+  /** Half-width of the field of view around the line of sight [°], default 30. */
+  fieldDeg: number;
+}
+
+const TOP_KEYS = ['sunfacet', 'name', 'notes', 'site', 'model', 'materials', 'defaultMaterial', 'ground', 'zones', 'period', 'weather', 'sampling', 'viewpoints'] as const;
+
+/** Largest |ground.z| accepted [m] (model coordinates are around the site, not kilometres away). */
+export const GROUND_Z_LIMIT_M = 1000;
 
 export const DEFAULT_SAMPLING: SamplingSpec = { seed: 1, skyRaysPerPatch: 16, viewRays: 256 };
 
@@ -129,7 +150,8 @@ export function validateProject(raw: unknown, file: string): Project {
     v.keys(g, 'ground', ['material', 'z']);
     ground = {
       material: g.material === undefined ? 'stone-paving' : materialAssignment(v, g.material, 'ground.material'),
-      z: g.z === undefined ? 0 : v.number(g.z, 'ground.z', { unit: 'm' }),
+      // Bounded: the ground apron around the model grows with the model's height above the ground.
+      z: g.z === undefined ? 0 : v.number(g.z, 'ground.z', { min: -GROUND_Z_LIMIT_M, max: GROUND_Z_LIMIT_M, unit: 'm' }),
     };
   }
 
@@ -159,7 +181,31 @@ export function validateProject(raw: unknown, file: string): Project {
       if (Math.round(Math.sqrt(n)) ** 2 !== n) v.fail(`sampling.${key}`, 'not a square number', 'a square number such as 4, 9, 16, 25, 64, 256 (rays on a jittered square grid)', n);
     }
   }
-  return { sunfacet: 1, name, site, model, materials, defaultMaterial, ground, zones, period, weather, sampling };
+  const viewpoints = o.viewpoints === undefined ? [] : v.array(o.viewpoints, 'viewpoints').map((raw, i) => viewpointSpec(v, raw, join('viewpoints', i)));
+  viewpoints.forEach((p, i) => {
+    if (viewpoints.findIndex((q) => q.name === p.name) !== i) v.fail(`viewpoints[${i}].name`, 'duplicate viewpoint name', 'a name unique among the viewpoints', p.name);
+  });
+  return { sunfacet: 1, name, site, model, materials, defaultMaterial, ground, zones, period, weather, sampling, viewpoints };
+}
+
+/** Default half-width of a viewpoint's field of view [°] (glare.ts DEFAULT_GLARE_FIELD_DEG). */
+export const DEFAULT_VIEWPOINT_FIELD_DEG = 30;
+
+function viewpointSpec(v: Validator, raw: unknown, path: string): ViewpointSpec {
+  const o = v.object(raw, path);
+  v.keys(o, path, ['name', 'position', 'viewDirectionDeg', 'fieldDeg']);
+  const name = v.string(o.name, join(path, 'name'));
+  const pp = join(path, 'position');
+  const a = v.array(o.position, pp);
+  if (a.length !== 3) v.fail(pp, 'not an [x, y, z] triple', 'three numbers [x, y, z] in metres (x east, y north, z up)', o.position);
+  const position: [number, number, number] = [v.number(a[0], join(pp, 0), { unit: 'm' }), v.number(a[1], join(pp, 1), { unit: 'm' }), v.number(a[2], join(pp, 2), { unit: 'm' })];
+  const out: ViewpointSpec = {
+    name,
+    position,
+    fieldDeg: o.fieldDeg === undefined ? DEFAULT_VIEWPOINT_FIELD_DEG : v.number(o.fieldDeg, join(path, 'fieldDeg'), { min: 0, max: 180, exclusiveMin: true, unit: '°' }),
+  };
+  if (o.viewDirectionDeg !== undefined) out.viewDirectionDeg = v.number(o.viewDirectionDeg, join(path, 'viewDirectionDeg'), { min: 0, max: 360, unit: '° clockwise from north' });
+  return out;
 }
 
 function materialAssignment(v: Validator, val: unknown, path: string): MaterialAssignment {

@@ -9,7 +9,8 @@
  * - Non-finite values (NaN, ±Infinity) in the per-step arrays are skipped, never counted as peaks.
  * - Ties go to the first occurrence: the lowest sensor (or patch) index, then the earliest step.
  */
-import type { Results } from './results.ts';
+import type { ConcentrationResult, Results } from './results.ts';
+import { GLARE_CATEGORIES, GLARE_HOURS_FROM, GLARE_CAUTION, type GlareCategoryId } from './stages/glare.ts';
 import { UTCI_CATEGORIES, type UtciCategoryId } from '../physics/utci.ts';
 import { InputError } from '../physics/errors.ts';
 
@@ -68,6 +69,37 @@ export interface ZoneSummary {
   mrtAbove: { thresholdC: number; meanHours: number; maxHours: number };
   /** Median of the sensors' sky view factors; null when the zone has no sensor. */
   medianSkyViewFactor: number | null;
+  /** Reflected sun (present when the results carry glare per sensor). */
+  glare?: ZoneGlareSummary;
+}
+
+/** Glare hours: steps in a category × stepHours, per sensor, mean over the zone and at the worst sensor. */
+export interface GlareHours {
+  id: GlareCategoryId;
+  label: string;
+  meanHours: number;
+  maxHours: number;
+}
+
+export interface ZoneGlareSummary {
+  /** Hours with glare (category `glareHoursFrom` or worse), mean over sensors and at the worst sensor [h]. */
+  glareHours: { meanHours: number; maxHours: number };
+  /** Hours per category other than 'none'. */
+  categoryHours: GlareHours[];
+  /** The worst sensor by glare hours (first on ties); null when no sensor has any. */
+  worstSensor: { sensor: number; position: [number, number, number]; glareHours: number } | null;
+  /** Highest reflected beam irradiance at a sensor [W/m²]; null when none arrives. */
+  peakReflected: { valueWm2: number; time: string; sensor: number; position: [number, number, number] } | null;
+}
+
+export interface ViewpointGlareSummary {
+  name: string;
+  /** Hours with glare (`glareHoursFrom` or worse) [h]. */
+  glareHours: number;
+  /** Hours per category other than 'none' [h]. */
+  categoryHours: { id: GlareCategoryId; label: string; hours: number }[];
+  /** Highest reflected beam irradiance [W/m²] and its time; null when none arrives. */
+  peakReflected: { valueWm2: number; time: string } | null;
 }
 
 export interface MaterialSummary {
@@ -95,6 +127,14 @@ export interface Summary {
   materials: MaterialSummary[];
   /** Number of entries in `Results.warnings`. */
   warnings: number;
+  /** Glare categories, the first counted as glare hours, and the caution (when the results carry glare). */
+  glare?: { categories: { id: GlareCategoryId; label: string }[]; glareHoursFrom: GlareCategoryId; caution: string };
+  /** Glare per viewpoint (when the results carry viewpoints). */
+  viewpoints?: ViewpointGlareSummary[];
+  /** The worst concentration of reflected sun (Results.concentration[0]), or null when none was found. */
+  worstConcentration?: ConcentrationResult | null;
+  /** Number of points flagged for concentration. */
+  concentrationPoints?: number;
 }
 
 const round1 = (v: number): number => Math.round(v * 10) / 10 + 0; // + 0 turns −0 into 0
@@ -133,6 +173,78 @@ export function summarizeResults(results: Results, opts: { stepHours: number; mr
     zones: results.zones.map((z) => summarizeZone(z, times, stepHours, thresholdC)),
     materials: summarizeMaterials(results),
     warnings: results.warnings.length,
+    ...glareSummary(results, stepHours),
+  };
+}
+
+const GLARE_INDEX = new Map<string, number>(GLARE_CATEGORIES.map((c, i) => [c.id, i]));
+const GLARE_FROM_INDEX = GLARE_INDEX.get(GLARE_HOURS_FROM)!;
+
+/** Step counts per glare category (index) of one glare series. */
+function glareCounts(series: readonly string[]): Float64Array {
+  const c = new Float64Array(GLARE_CATEGORIES.length);
+  for (const id of series) {
+    const i = GLARE_INDEX.get(id);
+    if (i !== undefined) c[i]! += 1;
+  }
+  return c;
+}
+
+function glareHoursOf(counts: Float64Array): number {
+  let n = 0;
+  for (let i = GLARE_FROM_INDEX; i < counts.length; i++) n += counts[i]!;
+  return n;
+}
+
+/** The glare parts of the summary; nothing when the results carry no glare (older results). */
+function glareSummary(results: Results, stepHours: number): Pick<Summary, 'glare' | 'viewpoints' | 'worstConcentration' | 'concentrationPoints'> {
+  if (results.glare === undefined) return {};
+  const viewpoints = (results.viewpoints ?? []).map((v): ViewpointGlareSummary => {
+    const counts = glareCounts(v.glare);
+    let best = 0, bestT = -1;
+    v.reflectedBeamWm2.forEach((e, t) => { if (Number.isFinite(e) && e > best) { best = e; bestT = t; } });
+    return {
+      name: v.name,
+      glareHours: round1(glareHoursOf(counts) * stepHours),
+      categoryHours: GLARE_CATEGORIES.slice(1).map((c, i) => ({ id: c.id, label: c.label, hours: round1(counts[i + 1]! * stepHours) })),
+      peakReflected: bestT < 0 ? null : { valueWm2: round1(best), time: results.times[bestT] as string },
+    };
+  });
+  return {
+    glare: { categories: GLARE_CATEGORIES.map((c) => ({ id: c.id, label: c.label })), glareHoursFrom: GLARE_HOURS_FROM, caution: results.glare.caution || GLARE_CAUTION },
+    viewpoints,
+    worstConcentration: results.concentration?.[0] ?? null,
+    concentrationPoints: results.concentration?.length ?? 0,
+  };
+}
+
+function summarizeZoneGlare(zone: Results['zones'][number], times: string[], stepHours: number): ZoneGlareSummary | undefined {
+  if (!zone.sensors.some((s) => s.glare !== undefined)) return undefined;
+  const nCat = GLARE_CATEGORIES.length;
+  const sum = new Float64Array(nCat), max = new Float64Array(nCat);
+  let glareSum = 0, glareMax = 0, worst = -1;
+  let best = 0, bestSensor = -1, bestStep = -1;
+  zone.sensors.forEach((s, si) => {
+    const counts = glareCounts(s.glare ?? []);
+    for (let c = 0; c < nCat; c++) {
+      sum[c]! += counts[c]!;
+      if (counts[c]! > max[c]!) max[c] = counts[c]!;
+    }
+    const g = glareHoursOf(counts);
+    glareSum += g;
+    if (g > glareMax) { glareMax = g; worst = si; }
+    (s.reflectedBeamWm2 ?? []).forEach((e, t) => { if (Number.isFinite(e) && e > best) { best = e; bestSensor = si; bestStep = t; } });
+  });
+  const n = zone.sensors.length;
+  const pos = (si: number): [number, number, number] => {
+    const p = (zone.sensors[si] as Results['zones'][number]['sensors'][number]).position;
+    return [round2(p[0]), round2(p[1]), round2(p[2])];
+  };
+  return {
+    glareHours: { meanHours: n === 0 ? 0 : round1((glareSum * stepHours) / n), maxHours: round1(glareMax * stepHours) },
+    categoryHours: GLARE_CATEGORIES.slice(1).map((c, i) => ({ id: c.id, label: c.label, meanHours: n === 0 ? 0 : round1((sum[i + 1]! * stepHours) / n), maxHours: round1(max[i + 1]! * stepHours) })),
+    worstSensor: worst < 0 ? null : { sensor: worst, position: pos(worst), glareHours: round1(glareMax * stepHours) },
+    peakReflected: bestSensor < 0 ? null : { valueWm2: round1(best), time: times[bestStep] as string, sensor: bestSensor, position: pos(bestSensor) },
   };
 }
 
@@ -173,6 +285,7 @@ function summarizeZone(zone: Results['zones'][number], times: string[], stepHour
   });
 
   const n = zone.sensors.length;
+  const glareOf = summarizeZoneGlare(zone, times, stepHours);
   const mean = (totalSteps: number): number => (n === 0 ? 0 : round1((totalSteps * stepHours) / n));
   const peak = (valueC: number, si: number, t: number): SensorPeak | null => {
     if (si < 0) return null;
@@ -195,6 +308,7 @@ function summarizeZone(zone: Results['zones'][number], times: string[], stepHour
     peakUtci: peak(utciBest, utciSensor, utciStep),
     mrtAbove: { thresholdC, meanHours: mean(aboveSum), maxHours: round1(aboveMax * stepHours) },
     medianSkyViewFactor: svf.length === 0 ? null : round2(median(svf)),
+    ...(glareOf === undefined ? {} : { glare: glareOf }),
   };
 }
 

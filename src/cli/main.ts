@@ -12,8 +12,9 @@ import { demoCommand } from './commands/demo.ts';
 import { dayCommand } from './commands/day.ts';
 import { auditCommand } from './commands/audit.ts';
 import { mergeCommand } from './commands/merge.ts';
+import { reportCommand } from './commands/report.ts';
 
-export const COMMANDS: Command[] = [auditCommand, mergeCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
+export const COMMANDS: Command[] = [auditCommand, mergeCommand, reportCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
 
 const CAUTION =
   'Sunfacet screens designs; it does not certify them. Results depend on the inputs and the model\n' +

@@ -21,7 +21,7 @@ const CONFIG = {
   font: FONT,
   view: { stroke: '#999' },
   axis: { labelFontSize: 10, titleFontSize: 10, titleFontWeight: 'normal' as const, gridColor: '#ddd' },
-  legend: { labelFontSize: 10, titleFontSize: 10, titleFontWeight: 'normal' as const },
+  legend: { labelFontSize: 10, titleFontSize: 10, titleFontWeight: 'normal' as const, labelLimit: 240 },
 };
 
 /** Renders a Vega-Lite spec to an SVG string (no DOM). */
@@ -155,6 +155,7 @@ export async function calendarUtciChartSvg(times: readonly string[], series: Zon
       color: {
         field: 'label', type: 'nominal' as const, title: 'UTCI stress category',
         scale: { domain: present.map((c) => c.label), range: present.map((c) => CATEGORY_COLOURS[c.id]) },
+        legend: { orient: 'bottom' as const, columns: 4, symbolType: 'square' },
       },
     },
   });

@@ -21,6 +21,8 @@ export interface PlanViewInput {
   scale: ScaleId;
   /** Colour range; default: the values' finite min and max. */
   range?: { min: number; max: number };
+  /** Start the colour range at 0 (counts of hours), not at the smallest value. */
+  fromZero?: boolean;
   /** Sensor index to ring (peak location). */
   markSensor?: number;
   /** Surfaces drawn as context (walls as lines, roofs above the zone as grey cells). */
@@ -41,7 +43,7 @@ export function planViewSvg(p: PlanViewInput): string {
     y0 = Math.min(y0, s.position[1]); y1 = Math.max(y1, s.position[1]);
   }
   if (!Number.isFinite(x0)) { x0 = 0; x1 = 1; y0 = 0; y1 = 1; }
-  const margin = Math.max(3, spacing * 2);
+  const margin = Math.max(5, spacing * 3);
   x0 -= margin; x1 += margin; y0 -= margin; y1 += margin;
   const plotW = W - 20;
   const k = plotW / (x1 - x0); // px per m
@@ -53,7 +55,7 @@ export function planViewSvg(p: PlanViewInput): string {
   const px = (x: number) => offX + (x - x0) * kk;
   const py = (y: number) => top + (y1 - y) * kk;
   const finite = p.values.filter((v) => Number.isFinite(v));
-  let min = p.range?.min ?? Math.min(...finite);
+  let min = p.range?.min ?? (p.fromZero ? Math.min(0, ...finite) : Math.min(...finite));
   let max = p.range?.max ?? Math.max(...finite);
   if (!Number.isFinite(min)) { min = 0; max = 1; }
   if (max - min < 1e-9) { min -= 0.5; max += 0.5; }

@@ -41,9 +41,12 @@ export class Tally {
   byProblem = new Map<string, number>();
   failures: { target: string; index: number; why: string; detail: string; file?: string }[] = [];
   slowestMs = 0;
+  /** Project inputs that went through the model stage / a full audit. */
+  depth = { model: 0, audit: 0 };
 
-  add(target: TargetName, index: number, o: Judged, savedAs?: string): void {
+  add(target: TargetName, index: number, o: Judged, savedAs?: string, depth: FuzzInput['depth'] = 'load'): void {
     this.tried++;
+    if (depth !== 'load') this.depth[depth]++;
     this.slowestMs = Math.max(this.slowestMs, o.ms);
     const t = this.byTarget.get(target) ?? { ok: 0, errors: 0, failures: 0 };
     this.byTarget.set(target, t);
@@ -71,6 +74,7 @@ export class Tally {
       `crashes: ${this.crashes}`,
       `hangs: ${this.hangs}`,
       `slowest input: ${this.slowestMs.toFixed(0)} ms`,
+      `project inputs run through the model stage: ${this.depth.model}, through a full audit: ${this.depth.audit}`,
       'by target (ok / input errors / failures):',
       ...[...this.byTarget].map(([k, v]) => `  ${k.padEnd(9)} ${v.ok} / ${v.errors} / ${v.failures}`),
       'errors by kind (most common 40):',

@@ -8,7 +8,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { BUDGET_MS, inputFor, saveRegression, Tally, type Judged } from './campaign.ts';
-import type { TargetName } from './targets.ts';
+import type { FuzzInput, TargetName } from './targets.ts';
 
 function arg(name: string): string | undefined {
   const i = process.argv.indexOf(name);
@@ -49,7 +49,7 @@ async function runFrom(from: number): Promise<number | null> {
     const fail = (index: number, why: string, detail: string) => {
       const input = inputFor(seed, index, audits);
       const file = saveRegression(input);
-      tally.add(input.target, index, { kind: 'failure', why, detail, ms: performance.now() - startedAt }, file);
+      tally.add(input.target, index, { kind: 'failure', why, detail, ms: performance.now() - startedAt }, file, input.depth);
       process.stderr.write(`[fuzz] #${index} ${input.target}: ${why} -> regressions/${file}\n`);
     };
     const timer = setInterval(() => {
@@ -58,7 +58,7 @@ async function runFrom(from: number): Promise<number | null> {
         end(current + 1);
       }
     }, 250);
-    w.on('message', (m: { type: string; index: number; target: TargetName; judged: Judged }) => {
+    w.on('message', (m: { type: string; index: number; target: TargetName; depth: FuzzInput['depth']; judged: Judged }) => {
       if (m.type === 'start') {
         current = m.index;
         startedAt = performance.now();
@@ -66,7 +66,7 @@ async function runFrom(from: number): Promise<number | null> {
         current = -1;
         let saved: string | undefined;
         if (m.judged.kind === 'failure') saved = saveRegression(inputFor(seed, m.index, audits));
-        tally.add(m.target, m.index, m.judged, saved);
+        tally.add(m.target, m.index, m.judged, saved, m.depth);
         if (m.judged.kind === 'failure') process.stderr.write(`[fuzz] #${m.index} ${m.target}: ${m.judged.why} -> regressions/${saved}\n`);
         if (tally.tried % 1000 === 0) process.stderr.write(`[fuzz] ${tally.tried}/${count} (${((performance.now() - t0) / 1000).toFixed(0)} s)\n`);
       } else if (m.type === 'end') end(null);

@@ -11,6 +11,6 @@ for (let i = from; i < to; i++) {
   port.postMessage({ type: 'start', index: i });
   const input = inputFor(seed, i, auditEvery);
   const judged = await judge(input);
-  port.postMessage({ type: 'done', index: i, target: input.target, judged });
+  port.postMessage({ type: 'done', index: i, target: input.target, depth: input.depth, judged });
 }
 port.postMessage({ type: 'end' });

@@ -123,13 +123,19 @@ export function surfaceLayerRange(results: Results, layer: SurfaceLayerId): Valu
   return cached(results, `s:${layer}`, () => rangeOfColumns(results.surfaces.map((s) => surfaceColumn(layer, s))));
 }
 
-/** Automatic range of a sensor layer over every step and sensor (0 to the period's length for hours); cached per Results. */
+/** Automatic range of a sensor layer over every step and sensor (0 to the most hours of any sensor, for hours); cached per Results. */
 export function sensorLayerRange(results: Results, layer: SensorLayerId, categoryId: UtciCategoryId): ValueRange | null {
   if (layer === 'categoryHours') {
     if (sensorCount(results) === 0) return null;
-    return { min: 0, max: Math.max(1, results.times.length * stepHoursOf(results)) };
+    // 0 to the most hours any sensor spends in the category (over a year, the period's length
+    // would leave every tile dark); one step at least, so the range is never empty.
+    return cached(results, `h:${categoryId}`, () => {
+      const hours = sensorValues(results, 'categoryHours', 0, categoryId);
+      let max = 0;
+      for (const h of hours) if (h > max) max = h;
+      return { min: 0, max: Math.max(stepHoursOf(results), max) };
+    });
   }
-  void categoryId;
   return cached(results, `z:${layer}`, () => rangeOfColumns(results.zones.flatMap((z) => z.sensors.map((s) => (layer === 'mrt' ? s.mrtC : s.utciC)))));
 }
 

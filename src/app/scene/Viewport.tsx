@@ -1,5 +1,5 @@
 /** The 3-D view: a demand-rendered canvas (z up) with orbit controls and the scene layers. */
-import { Canvas, useThree } from '@react-three/fiber';
+import { Canvas, useFrame, useThree } from '@react-three/fiber';
 import { OrbitControls } from '@react-three/drei';
 import { useEffect, useRef } from 'react';
 import type { OrbitControls as OrbitControlsImpl } from 'three-stdlib';
@@ -15,6 +15,7 @@ import { GroundPlane } from './GroundPlane.tsx';
 import { NorthArrow } from './NorthArrow.tsx';
 import { PersonFigure } from './PersonFigure.tsx';
 import { EngineFrame } from './EngineFrame.tsx';
+import { SunPathDome } from './SunPathDome.tsx';
 
 /** Frames the camera on the model whenever a new model is shown. */
 function CameraFit({ controls }: { controls: React.RefObject<OrbitControlsImpl | null> }) {
@@ -65,6 +66,15 @@ function KeyboardZoom({ controls }: { controls: React.RefObject<OrbitControlsImp
   return null;
 }
 
+/** Counts drawn frames on `window.sunfacetFramesDrawn` (the frame rate check of the end-to-end test reads it). */
+function FrameCounter() {
+  useFrame(() => {
+    const w = window as { sunfacetFramesDrawn?: number };
+    w.sunfacetFramesDrawn = (w.sunfacetFramesDrawn ?? 0) + 1;
+  });
+  return null;
+}
+
 export function Viewport() {
   const controls = useRef<OrbitControlsImpl | null>(null);
   const set = useViewer((s) => s.set);
@@ -80,6 +90,7 @@ export function Viewport() {
       <color attach="background" args={['#e6e9ec']} />
       <OrbitControls ref={controls} makeDefault enableDamping={false} maxPolarAngle={Math.PI * 0.495} />
       <CameraFit controls={controls} />
+      <FrameCounter />
       <KeyboardZoom controls={controls} />
       <SunLight />
       <GroundPlane />
@@ -90,6 +101,7 @@ export function Viewport() {
         <SurfaceHeatmap />
         <SensorTiles />
         <ZoneOutlines />
+        <SunPathDome />
       </EngineFrame>
     </Canvas>
   );

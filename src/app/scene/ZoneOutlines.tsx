@@ -28,6 +28,8 @@ export function ZoneOutlines() {
         .map((z) => new Line(loopGeometry(z.polygon!.map(([x, y]) => [x, y, (z.floorZ ?? groundZ) + LIFT_M]), true), ZONE_LINE)),
     [zones, groundZ],
   );
+  const edit = useViewer((s) => (s.tool === 'editZone' ? s.editCorner : null));
+  const editZone = edit ? zones?.[edit.zone] : undefined;
   const draftLine = useMemo(() => (draft.length > 0 ? new Line(loopGeometry(draft.map(([x, y, z]) => [x, y, z + LIFT_M]), false), DRAFT_LINE) : null), [draft]);
   return (
     <group name="zones">
@@ -39,6 +41,20 @@ export function ZoneOutlines() {
         <mesh key={`p${i}`} position={[p[0], p[1], p[2] + LIFT_M]}>
           <sphereGeometry args={[0.18, 12, 8]} />
           <meshBasicMaterial color={i === 0 ? '#c0392b' : '#7a1f14'} />
+        </mesh>
+      ))}
+      {editZone?.polygon?.map(([x, y], i) => (
+        <mesh
+          key={`h${i}`}
+          position={[x, y, (editZone.floorZ ?? groundZ) + LIFT_M]}
+          name={`corner-handle-${i}`}
+          onClick={(e) => {
+            e.stopPropagation();
+            useViewer.getState().set({ editCorner: { zone: edit!.zone, corner: i } });
+          }}
+        >
+          <boxGeometry args={[0.45, 0.45, 0.45]} />
+          <meshBasicMaterial color={edit!.corner === i ? '#e8590c' : '#0b3c6b'} />
         </mesh>
       ))}
     </group>

@@ -158,6 +158,21 @@ export function updateZone(doc: ProjectDoc, index: number, patch: Partial<ZoneDo
   return { ...doc, zones };
 }
 
+/** Moves corner `corner` of polygon zone `index` to (x, y) [m, engine frame]. */
+export function moveZoneCorner(doc: ProjectDoc, index: number, corner: number, xM: number, yM: number): ProjectDoc {
+  const z = doc.zones?.[index];
+  if (!z?.polygon || corner < 0 || corner >= z.polygon.length) return doc;
+  const polygon = z.polygon.map((p, i) => (i === corner ? ([xM, yM] as [number, number]) : p));
+  return updateZone(doc, index, { polygon });
+}
+
+/** Removes a corner of a polygon zone (a zone keeps at least three). */
+export function removeZoneCorner(doc: ProjectDoc, index: number, corner: number): ProjectDoc {
+  const z = doc.zones?.[index];
+  if (!z?.polygon || z.polygon.length <= 3) return doc;
+  return updateZone(doc, index, { polygon: z.polygon.filter((_, i) => i !== corner) });
+}
+
 export function removeZone(doc: ProjectDoc, index: number): ProjectDoc {
   return { ...doc, zones: (doc.zones ?? []).filter((_, i) => i !== index) };
 }

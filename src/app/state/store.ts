@@ -10,7 +10,7 @@ import type { UnitSystem } from '../colour/units.ts';
 import type { UtciCategoryId } from '../../physics/utci.ts';
 import type { RangeMode } from '../ui/ranges.ts';
 
-export type Tool = 'look' | 'pickSurface' | 'drawZone';
+export type Tool = 'look' | 'pickSurface' | 'drawZone' | 'editZone';
 export type ViewMode = 'model' | 'materials' | 'results';
 export type RunStatus = 'idle' | 'running' | 'done' | 'failed' | 'cancelled';
 
@@ -71,6 +71,11 @@ export interface ViewerState {
   picked: Picked;
   run: RunState;
   aboutOpen: boolean;
+  /** The sun-path overlay, and the solstice paths with it. */
+  showSunPath: boolean;
+  showSolstices: boolean;
+  /** With the 'editZone' tool: the zone whose corners are edited, and the corner picked (−1: none yet). */
+  editCorner: { zone: number; corner: number } | null;
   set: (patch: Partial<ViewerState>) => void;
   setDoc: (doc: ProjectDoc, opts?: { keepResults?: boolean }) => void;
 }
@@ -104,6 +109,9 @@ export const useViewer = create<ViewerState>()((set) => ({
   picked: null,
   run: initialRun,
   aboutOpen: false,
+  showSunPath: false,
+  showSolstices: true,
+  editCorner: null,
   set: (patch) => set(patch),
   setDoc: (doc, opts) => set((s) => ({ doc, resultsStale: opts?.keepResults ? s.resultsStale : s.resultsVersion > 0 })),
 }));

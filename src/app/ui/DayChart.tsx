@@ -30,7 +30,15 @@ export function DayChart({ title, unit, times, series, current }: DayChartProps)
   const n = times.length;
   const x = (i: number) => L + ((W - L - R) * i) / Math.max(1, n - 1);
   const y = (v: number) => T + (H - T - B) * (1 - (v - lo) / (hi - lo));
-  const hourTicks = times.map((t, i) => ({ i, h: /T(\d\d):(\d\d)/.exec(t) })).filter((o) => o.h && o.h[2] === '00' && Number(o.h[1]) % 6 === 0);
+  // Every sixth hour, once (stamps may sit at the half hour, e.g. a weather file's midpoints).
+  const seenHours = new Set<string>();
+  const hourTicks = times
+    .map((t, i) => ({ i, h: /T(\d\d):(\d\d)/.exec(t) }))
+    .filter((o) => {
+      if (!o.h || Number(o.h[1]) % 6 !== 0 || seenHours.has(o.h[1]!)) return false;
+      seenHours.add(o.h[1]!);
+      return true;
+    });
   return (
     <figure className="chart">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={`${title} over the period`}>

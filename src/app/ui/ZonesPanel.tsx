@@ -1,6 +1,7 @@
 /** Zones: draw a polygon on a floor or roof in the view, then set sensor height, spacing and posture. */
 import { useViewer } from '../state/store.ts';
-import { addZone, nextZoneName, removeZone, updateZone, type Posture } from '../state/projectDoc.ts';
+import { addZone, moveZoneCorner, nextZoneName, removeZone, removeZoneCorner, updateZone, type Posture } from '../state/projectDoc.ts';
+import { heavy } from '../state/heavy.ts';
 import { NumberField } from './NumberField.tsx';
 import { fromSI, toSI, unitLabel } from '../colour/units.ts';
 
@@ -28,7 +29,14 @@ export function ZonesPanel() {
   const units = useViewer((s) => s.units);
   const set = useViewer((s) => s.set);
   const setDoc = useViewer((s) => s.setDoc);
+  const editCorner = useViewer((s) => (s.tool === 'editZone' ? s.editCorner : null));
+  useViewer((s) => s.modelVersion);
   if (!doc) return null;
+  const surfaceNames = heavy.model?.surfaceNames ?? [];
+  const addMeshZone = (mesh: string) => {
+    const d = addZone(doc, { name: nextZoneName(doc, mesh), mesh, sensorHeightM: 1.1, spacingM: 1, posture: 'standing' });
+    setDoc(d);
+  };
   const zones = doc.zones ?? [];
   const L = unitLabel('length', units);
   const len = (v: number) => fromSI('length', v, units);
@@ -49,6 +57,15 @@ export function ZonesPanel() {
           Draw a zone
         </button>
       )}
+      <div className="field">
+        <label htmlFor="zone-on-surface">Or make a zone on a surface (sensors over its upward faces)</label>
+        <select id="zone-on-surface" value="" onChange={(e) => e.target.value && addMeshZone(e.target.value)}>
+          <option value="">— choose a surface —</option>
+          {surfaceNames.map((n) => (
+            <option key={n} value={n}>{n}</option>
+          ))}
+        </select>
+      </div>
       {zones.length === 0 && <p className="small muted">No zones yet: a zone is where people sit or stand; sensors are laid on a grid inside it.</p>}
       {zones.map((z, i) => (
         <fieldset key={`${z.name}-${i}`} className="zone">
@@ -56,7 +73,31 @@ export function ZonesPanel() {
             <label className="visually-hidden" htmlFor={`zone-name-${i}`}>Zone name</label>
             <input id={`zone-name-${i}`} value={z.name} onChange={(e) => setDoc(updateZone(doc, i, { name: e.target.value }))} />
           </legend>
-          <p className="small muted">{z.polygon ? `${z.polygon.length} corners` : `on mesh “${z.mesh}”`}</p>
+          <p className="small muted">
+            {z.polygon ? `${z.polygon.length} corners` : `on the surface “${z.mesh}”`}
+            {z.polygon && (
+              <button
+                type="button"
+                className="link"
+                aria-pressed={editCorner?.zone === i}
+                onClick={() => set(editCorner?.zone === i ? { tool: 'look', editCorner: null } : { tool: 'editZone', editCorner: { zone: i, corner: -1 }, draftZone: [] })}
+              >
+                {editCorner?.zone === i ? 'Done editing' : 'Edit corners'}
+              </button>
+            )}
+          </p>
+          {editCorner?.zone === i && z.polygon && (
+            <div className="corners" data-testid={`corners-${i}`}>
+              <p className="small">Click a corner’s handle in the view, then click where it should go; or type the coordinates (east, north).</p>
+              {z.polygon.map(([x, y], c) => (
+                <div className={`row corner${editCorner.corner === c ? ' picked' : ''}`} key={c}>
+                  <NumberField label={`Corner ${c + 1} east`} unit={L} value={len(x)} digits={2} onCommit={(v) => setDoc(moveZoneCorner(doc, i, c, back(v), y))} />
+                  <NumberField label="north" unit={L} value={len(y)} digits={2} onCommit={(v) => setDoc(moveZoneCorner(doc, i, c, x, back(v)))} />
+                  <button type="button" className="link" disabled={z.polygon!.length <= 3} onClick={() => setDoc(removeZoneCorner(doc, i, c))} aria-label={`Remove corner ${c + 1}`}>✕</button>
+                </div>
+              ))}
+            </div>
+          )}
           <div className="row">
             <NumberField label="Floor level" unit={L} value={len(z.floorZ ?? doc.ground?.z ?? 0)} digits={2} onCommit={(v) => setDoc(updateZone(doc, i, { floorZ: back(v) }))} />
             <div className="field">

@@ -10,7 +10,10 @@
  * with V_i the sun visibility, L_b the Perez (1990) radiance of sky band b and P_i,b the patch's
  * visible projected solid angle of that band, E_cs the circumsolar point source (skyRadiance.ts),
  * F the cosine-weighted view fractions (surfaceViews), "g" the far ground beyond the apron.
- * All reflection is treated as diffuse (Lambertian) here.
+ * The reflection here is the diffuse (Lambertian) part, ρ·(1 − specularFraction); the specular
+ * part reaches the sensors as directional beams traced by the glare stage (glare.ts), passed in as
+ * `specularBeamTermWm2` (Σ fp·E per sensor and step) and added to the direct-beam term of the MRT,
+ * so it is not counted twice. Specular reflection onto other patches is not modelled.
  *
  * Longwave arriving at patch i: L_in = F_i,sky·L↓ + Σ_j F_ij·J_j + F_i,g·J_g + F_i,other·σT_air⁴,
  * J the longwave leaving each patch (εσT⁴ + (1 − ε)·L_in), the sky taken as isotropic with the
@@ -67,7 +70,11 @@ function windAt(v10: number, heightM: number): number {
   return windAtHeightFrom10mMs(Math.max(v10, 0.1), Math.max(heightM, 0.5));
 }
 
-export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryData, onStep?: (done: number, total: number) => void): TimeStepOutput {
+/**
+ * @param specularBeamTermWm2 Optional N × T (row-major by sensor): the reflected-sun beams at each
+ *   sensor as Σ fp(posture, beam altitude) · E [W/m²] (glare.ts `sensorBeamTermWm2`).
+ */
+export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryData, onStep?: (done: number, total: number) => void, specularBeamTermWm2?: Float32Array): TimeStepOutput {
   const P = model.patches.count;
   const T = steps.count;
   const N = geo.sensorSun.length > 0 || geo.sensorSkyViewFactor.length > 0 ? geo.sensorSkyViewFactor.length : 0;
@@ -84,8 +91,9 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
   const heightM = new Float64Array(P), windFactor = new Float64Array(P);
   for (let i = 0; i < P; i++) {
     const m = mats[model.patchMaterial[i]!]!;
-    rhoV[i] = m.reflectanceVisible;
-    rhoN[i] = m.reflectanceNir;
+    // Diffuse part only; the specular part is the glare stage's beam (no double counting).
+    rhoV[i] = m.reflectanceVisible * (1 - m.specularFraction);
+    rhoN[i] = m.reflectanceNir * (1 - m.specularFraction);
     absV[i] = 1 - m.reflectanceVisible - m.transmittanceVisible;
     absN[i] = 1 - m.reflectanceNir - m.transmittanceNir;
     eps[i] = m.emissivity;
@@ -290,7 +298,9 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
       const count = set.positions.length / 3;
       for (let k = n0; k < n0 + count; k++) {
         const lit = sunIdx >= 0 && geo.sensorSun[k * S + sunIdx] === 1;
-        const mrt = mrtSixDirectionalPackedC(sK, 6 * k, sL, 6 * k, posture, lit ? beamNormal : 0, lit ? fp : 0);
+        // Direct beam fp·I plus the reflected-sun beams Σ fp·E, passed as one term with fp = 1.
+        const beamTerm = (lit ? beamNormal * fp : 0) + (specularBeamTermWm2 === undefined ? 0 : specularBeamTermWm2[k * T + t]!);
+        const mrt = mrtSixDirectionalPackedC(sK, 6 * k, sL, 6 * k, posture, beamTerm, 1);
         utciClampedC({ airTempC: ta, mrtC: mrt, wind10mMs: v10, relativeHumidityPct: steps.relativeHumidityPct[t]! }, clamp);
         if (clamp.clamped) {
           out.stats.utciClampedSensorSteps++;

@@ -47,6 +47,9 @@ const UNSUPPORTED_REQUIRED = new Set(['KHR_draco_mesh_compression', 'EXT_meshopt
 
 type Json = Record<string, unknown>;
 
+/** Largest accessor without a bufferView (all zeros plus sparse values) we allocate [components]. */
+const MAX_UNBACKED_ACCESSOR_ELEMENTS = 2 ** 26;
+
 /**
  * Parses a glTF 2.0 model (binary `.glb` or JSON `.gltf`) into the engine frame.
  * @param bytes the file's content
@@ -465,8 +468,14 @@ class GltfDocument {
     if (components === undefined) this.fail('unknown type', `${aplace}.type`, type, 'SCALAR, VEC2, VEC3, VEC4, MAT2, MAT3 or MAT4');
     const count = this.int(acc, 'count', aplace, undefined, 1);
     const normalized = acc['normalized'] === true;
-    const data = new Float64Array(count * components);
     const bv = this.optIndex(acc, 'bufferView', aplace);
+    // Allocate only what the file can back: a bufferView's bytes bound it (checked below, before
+    // the allocation); an accessor without one (zeros + sparse) is capped.
+    if (bv === undefined && count * components > MAX_UNBACKED_ACCESSOR_ELEMENTS) {
+      this.fail('accessor too large', `${aplace}.count`, count, `at most ${MAX_UNBACKED_ACCESSOR_ELEMENTS / components} elements for an accessor without a bufferView`);
+    }
+    let data = new Float64Array(0);
+    if (bv === undefined) data = new Float64Array(count * components);
     if (bv !== undefined) {
       const { bytes, stride } = this.view(bv, `${aplace}.bufferView`);
       const byteOffset = this.int(acc, 'byteOffset', aplace, 0);
@@ -481,6 +490,7 @@ class GltfDocument {
           'byteOffset + byteStride × (count − 1) + element size <= the bufferView\'s byteLength',
         );
       }
+      data = new Float64Array(count * components);
       const dv = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
       for (let i = 0; i < count; i++) {
         const base = byteOffset + i * step;
@@ -580,7 +590,7 @@ class GltfDocument {
       if (!Number.isFinite(p[0]!) || !Number.isFinite(p[1]!) || !Number.isFinite(p[2]!)) {
         this.fail('vertex outside the float range after the node transform', `${pplace}.attributes.POSITION, vertex ${v}`, Array.from(p), 'finite coordinates');
       }
-      this.builder.addVertex(p[0]!, p[1]!, p[2]!);
+      this.builder.addVertex(p[0]!, p[1]!, p[2]!, `${pplace}.attributes.POSITION, vertex ${v}`);
     }
     // A mirroring transform reverses the winding (glTF 2.0 §3.7.4).
     const flip = mat4Determinant3(job.world) < 0;

@@ -82,7 +82,7 @@ export function importObj(text: string, fileName: string, opts: ImportOptions = 
         }
         model.push(xyz[0]!, xyz[1]!, xyz[2]!);
         transformPoint(m, xyz[0]!, xyz[1]!, xyz[2]!, engine);
-        builder.addVertex(engine[0]!, engine[1]!, engine[2]!);
+        builder.addVertex(engine[0]!, engine[1]!, engine[2]!, place());
         break;
       }
       case 'f': {

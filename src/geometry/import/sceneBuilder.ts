@@ -12,6 +12,8 @@ export interface ImportedScene extends SceneArrays {
   droppedTriangleCount: number;
 }
 
+/** Largest accepted engine-frame coordinate [m] (100 000 km: any site fits, float32 does not overflow). */
+export const MAX_COORDINATE_M = 1e8;
 /** Twice the area below this [m²] counts as zero area. */
 const MIN_DOUBLE_AREA_M2 = 2e-10;
 /** Triangles whose height is below this fraction of their longest edge are degenerate slivers. */
@@ -57,8 +59,20 @@ export class SceneBuilder {
     return this.positions.length / 3;
   }
 
-  /** Adds an engine-frame vertex [m] (rounded to float32 as it will be stored); returns its index. */
-  addVertex(x: number, y: number, z: number): number {
+  /**
+   * Adds an engine-frame vertex [m] (rounded to float32 as it will be stored); returns its index.
+   * Refuses coordinates beyond ±MAX_COORDINATE_M (they would overflow float32 or ruin the ray maths).
+   */
+  addVertex(x: number, y: number, z: number, place?: string): number {
+    if (!(Math.abs(x) <= MAX_COORDINATE_M && Math.abs(y) <= MAX_COORDINATE_M && Math.abs(z) <= MAX_COORDINATE_M)) {
+      throw new InputError({
+        problem: 'vertex coordinate out of range',
+        file: this.file,
+        place: place ?? `vertex ${this.vertexCount}`,
+        value: [x, y, z],
+        expected: `coordinates within ±${MAX_COORDINATE_M} m of the origin after the unit and node transforms (check model.unitsPerMeter)`,
+      });
+    }
     this.positions.push(Math.fround(x), Math.fround(y), Math.fround(z));
     return this.positions.length / 3 - 1;
   }

@@ -11,9 +11,10 @@
  * - Cancellation: an aborted `signal` stops handing out chunks, terminates the workers at once
  *   (they are started again for the next job) and rejects with the signal's reason. In-process,
  *   the running chunk finishes first (it cannot be interrupted).
- * - A chunk that throws (or whose worker dies) rejects the job with a `TraceChunkError` naming the
- *   query and the receivers. `runSlot` is the one place where a retry or a replacement worker would
- *   go later.
+ * - Faults: a chunk that throws in its worker, or whose worker dies, is run again on a fresh worker
+ *   (the failed one is terminated and replaced); since every receiver's numbers depend only on its
+ *   index, the result equals a fault-free run. After `MAX_CHUNK_ATTEMPTS` tries (or at once for an
+ *   InputError) the job rejects with a `TraceChunkError` naming the query and the receivers.
  */
 import type { BvhData } from '../bvh/build.ts';
 import { createTraceApi, type TraceChunkResult, type TraceTask } from '../api.ts';
@@ -42,6 +43,10 @@ import { TraceChunkError, type AsyncTraceApi, type TraceExecutor, type TraceRunO
 
 /** Rays per chunk the default chunk size aims at. */
 export const RAYS_PER_CHUNK = 200_000;
+/** Times one chunk is tried (on a fresh worker each time) before the job fails. */
+export const MAX_CHUNK_ATTEMPTS = 3;
+/** Consecutive failed worker starts in one slot before the job fails. */
+export const MAX_WORKER_STARTS = 3;
 /** Default least time between progress calls [ms]. */
 export const DEFAULT_PROGRESS_INTERVAL_MS = 100;
 
@@ -57,6 +62,10 @@ interface Scheduler {
   workerCount: number;
   run(task: TraceTask, bvh: BvhData, total: number, raysPerReceiver: number, opts: TraceRunOptions): Promise<TraceChunkResult[]>;
   close(): void;
+}
+
+function isInputError(err: unknown): boolean {
+  return err instanceof InputError || (err instanceof Error && err.name === 'InputError');
 }
 
 function abortReason(signal: AbortSignal): unknown {
@@ -176,44 +185,79 @@ function createScheduler(factory: WorkerFactory, workerCount: number, shareMemor
         signal?.addEventListener('abort', onAbort, { once: true });
         progress();
 
-        const runSlot = async (slot: Slot) => {
-          let h: WorkerHandle;
-          try {
-            h = await start(slot);
-            if (settled) return;
+        // Faults: a chunk whose worker throws or dies is queued again and the worker replaced
+        // (each receiver's random stream depends only on its index, so a re-run gives the same
+        // numbers). A chunk is tried at most MAX_CHUNK_ATTEMPTS times; an InputError is not retried.
+        const attempts = new Uint8Array(chunks.length);
+        const retry: number[] = [];
+        /** Workers that hold this job's task (a replacement must be sent it again). */
+        const hasTask = new WeakSet<WorkerHandle>();
+        const takeChunk = (): number => (retry.length > 0 ? retry.shift()! : next < chunks.length ? next++ : -1);
+
+        /** Starts (or restarts) the slot's worker and gives it the BVH and this job's task. */
+        const ready = async (slot: Slot): Promise<WorkerHandle> => {
+          const h = await start(slot);
+          if (!holding.has(slot) || slot.busy === 0) {
             if (slot.busy++ === 0) h.hold?.(true);
             holding.add(slot);
-            if (!slot.bvhIds.has(bvhId)) {
-              await Promise.race([h.api.putBvh(bvhId, sendable), h.failed]);
-              slot.bvhIds.add(bvhId);
-            }
-            await Promise.race([h.api.putTask(taskId, fullTask), h.failed]);
-          } catch (err) {
-            if (!settled) stop(slot);
-            fail(err);
-            return;
           }
-          while (!settled && next < chunks.length) {
-            const c = next++;
-            const [s, e] = chunks[c]!;
-            let r: TraceChunkResult;
+          if (!slot.bvhIds.has(bvhId)) {
+            await Promise.race([h.api.putBvh(bvhId, sendable), h.failed]);
+            slot.bvhIds.add(bvhId);
+          }
+          if (!hasTask.has(h)) {
+            await Promise.race([h.api.putTask(taskId, fullTask), h.failed]);
+            hasTask.add(h);
+          }
+          return h;
+        };
+        /** Terminates the slot's worker if it is still `h` (another job may have replaced it already). */
+        const replace = (slot: Slot, h: WorkerHandle | null) => {
+          if (h === null || slot.handle === h) stop(slot);
+        };
+
+        const runSlot = async (slot: Slot) => {
+          let startFailures = 0;
+          while (!settled) {
+            let c = takeChunk();
+            if (c < 0) return;
+            let h: WorkerHandle | null = null;
             try {
-              r = await Promise.race([h.api.runChunk(taskId, s, e), h.failed]);
+              h = await ready(slot);
             } catch (err) {
-              // Retry or replacement would go here (a later issue): for now the job fails.
               if (settled) return;
-              stop(slot);
-              fail(new TraceChunkError(task.kind, s, e, err));
-              return;
+              retry.unshift(c);
+              replace(slot, h ?? slot.handle);
+              if (++startFailures >= MAX_WORKER_STARTS || isInputError(err)) fail(err);
+              continue;
             }
-            if (settled) return;
-            results[c] = r;
-            done += e - s;
-            progress();
-            if (--remaining === 0) {
-              settled = true;
-              finish();
-              resolve(results);
+            startFailures = 0;
+            while (!settled && c >= 0) {
+              const [s, e] = chunks[c]!;
+              let r: TraceChunkResult;
+              try {
+                r = await Promise.race([h.api.runChunk(taskId, s, e), h.failed]);
+              } catch (err) {
+                if (settled) return;
+                replace(slot, h);
+                if (++attempts[c]! >= MAX_CHUNK_ATTEMPTS || isInputError(err)) {
+                  fail(new TraceChunkError(task.kind, s, e, err));
+                  return;
+                }
+                retry.push(c);
+                break; // a fresh worker for this slot, then the next chunk (maybe this one again)
+              }
+              if (settled) return;
+              results[c] = r;
+              done += e - s;
+              progress();
+              if (--remaining === 0) {
+                settled = true;
+                finish();
+                resolve(results);
+                return;
+              }
+              c = takeChunk();
             }
           }
         };

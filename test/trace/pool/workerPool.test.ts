@@ -3,7 +3,10 @@ import { buildBvh } from '../../../src/trace/bvh/build.ts';
 import { sunVisibility } from '../../../src/trace/queries/sunVisibility.ts';
 import { skyVisibility } from '../../../src/trace/queries/skyVisibility.ts';
 import { surfaceViews } from '../../../src/trace/queries/surfaceViews.ts';
-import { createInProcessExecutor, createWorkerPool } from '../../../src/trace/pool/workerPool.ts';
+import { createInProcessExecutor, createWorkerPool, MAX_CHUNK_ATTEMPTS } from '../../../src/trace/pool/workerPool.ts';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { createNodeWorkerPool } from '../../../src/trace/pool/nodeWorkers.ts';
 import { TraceChunkError, type AsyncTraceApi, type TraceExecutor, type WorkerFactory } from '../../../src/trace/pool/types.ts';
 import { withSharedBuffers } from '../../../src/trace/pool/shareBuffers.ts';
@@ -123,7 +126,7 @@ describe('worker pool', () => {
     await pool.close();
   });
 
-  it('two jobs at once share the workers; aborting one fails the other instead of hanging', async () => {
+  it('two jobs at once share the workers; aborting one does not fail the other (its chunks move to fresh workers)', async () => {
     const pool = createNodeWorkerPool({ workers: 2 });
     pools.push(pool);
     const [a, b] = await Promise.all([
@@ -142,37 +145,16 @@ describe('worker pool', () => {
       onProgress: (done) => done > 0 && ac.abort(),
     });
     await expect(aborted).rejects.toMatchObject({ name: 'AbortError' });
-    await expect(other).rejects.toBeInstanceOf(TraceChunkError);
+    const otherResult = await other;
+    expect(bytes(otherResult.patchProjectedSr)).toEqual(bytes(skyVisibility(sc.bvh, many).patchProjectedSr));
     await pool.close();
   });
 
-  it('a chunk that throws in a worker rejects the job with a TraceChunkError naming the receivers', async () => {
-    let calls = 0;
+  /** In-process workers with an injected fault: `fault(workerNumber, chunkStart)` says what goes wrong. */
+  function faultyFactory(fault: (worker: number, start: number) => 'throw' | 'die' | 'none') {
+    const made = { workers: 0, terminated: 0 };
     const factory: WorkerFactory = () => {
-      const api = createTraceApi();
-      const asyncApi: AsyncTraceApi = {
-        ping: async () => api.ping(),
-        putBvh: async (id, b) => api.putBvh(id, b),
-        dropBvh: async (id) => api.dropBvh(id),
-        putTask: async (id, t) => api.putTask(id, t),
-        dropTask: async (id) => api.dropTask(id),
-        runChunk: async (id, s, e) => {
-          if (++calls === 3) throw new Error('worker fell over');
-          return api.runChunk(id, s, e);
-        },
-      };
-      return { api: asyncApi, failed: new Promise<never>(() => undefined), terminate: () => undefined };
-    };
-    const pool = createWorkerPool(factory, { workers: 1 });
-    const err = await pool.sunVisibility(sc.bvh, sunInput, { chunkSize: 10 }).catch((e: unknown) => e);
-    expect(err).toBeInstanceOf(TraceChunkError);
-    expect((err as TraceChunkError).start).toBe(20);
-    expect((err as TraceChunkError).end).toBe(30);
-    expect(String((err as Error).message)).toMatch(/sunVisibility: receivers 20\.\.29 .*worker fell over/);
-  });
-
-  it('a worker that dies mid-chunk fails the job instead of hanging', async () => {
-    const factory: WorkerFactory = () => {
+      const n = made.workers++;
       const api = createTraceApi();
       let die: (e: Error) => void = () => undefined;
       const failed = new Promise<never>((_, reject) => (die = reject));
@@ -182,15 +164,84 @@ describe('worker pool', () => {
         dropBvh: async (id) => api.dropBvh(id),
         putTask: async (id, t) => api.putTask(id, t),
         dropTask: async (id) => api.dropTask(id),
-        runChunk: () => {
-          setTimeout(() => die(new Error('exit code 1')), 5);
-          return new Promise(() => undefined); // never answers
+        runChunk: async (id, s, e) => {
+          const f = fault(n, s);
+          if (f === 'throw') throw new Error('worker fell over');
+          if (f === 'die') {
+            setTimeout(() => die(new Error('exit code 1')), 5);
+            return new Promise(() => undefined); // never answers
+          }
+          return api.runChunk(id, s, e);
         },
       };
-      return { api: asyncApi, failed, terminate: () => undefined };
+      return { api: asyncApi, failed, terminate: () => void made.terminated++ };
     };
+    return { factory, made };
+  }
+
+  it('a chunk that throws is re-run on a replacement worker; the result equals the fault-free run', async () => {
+    // Worker 0 throws on the chunk at receiver 20 (its third chunk); the replacement succeeds.
+    const { factory, made } = faultyFactory((w, s) => (w === 0 && s === 20 ? 'throw' : 'none'));
+    const pool = createWorkerPool(factory, { workers: 1 });
+    const sun = await pool.sunVisibility(sc.bvh, sunInput, { chunkSize: 10 });
+    expect(bytes(sun)).toEqual(bytes(directSun));
+    expect(made.workers).toBe(2);
+    expect(made.terminated).toBe(1);
+    const sky = await pool.skyVisibility(sc.bvh, skyInput, { chunkSize: 10 });
+    expect(bytes(sky.patchProjectedSr)).toEqual(bytes(directSky.patchProjectedSr));
+    await pool.close();
+  });
+
+  it('a worker that dies on its first chunk is replaced and the chunk re-run (2 workers, all three queries)', async () => {
+    const { factory, made } = faultyFactory((w) => (w === 1 ? 'die' : 'none'));
+    const pool = createWorkerPool(factory, { workers: 2 });
+    let last: [number, number] = [0, 0];
+    const sun = await pool.sunVisibility(sc.bvh, sunInput, { chunkSize: 4, onProgress: (d, t) => (last = [d, t]) });
+    expect(bytes(sun)).toEqual(bytes(directSun));
+    expect(last).toEqual([37, 37]); // no receiver counted twice
+    expect(made.workers).toBe(3);
+    const views = await pool.surfaceViews(sc.bvh, viewInput, { chunkSize: 5 });
+    expect(bytes(views.patchIndex)).toEqual(bytes(directViews.patchIndex));
+    expect(bytes(views.fraction)).toEqual(bytes(directViews.fraction));
+    expect(bytes(views.rowStart)).toEqual(bytes(directViews.rowStart));
+    await pool.close();
+  });
+
+  it('a chunk that fails on every worker rejects the job with a TraceChunkError naming the receivers', async () => {
+    const { factory, made } = faultyFactory((_w, s) => (s === 20 ? 'throw' : 'none'));
+    const pool = createWorkerPool(factory, { workers: 1 });
+    const err = await pool.sunVisibility(sc.bvh, sunInput, { chunkSize: 10 }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(TraceChunkError);
+    expect((err as TraceChunkError).start).toBe(20);
+    expect((err as TraceChunkError).end).toBe(30);
+    expect(String((err as Error).message)).toMatch(/sunVisibility: receivers 20\.\.29 .*worker fell over/);
+    expect(made.workers).toBe(MAX_CHUNK_ATTEMPTS); // tried on a fresh worker each time, then given up
+  });
+
+  it('workers that always die fail the job instead of hanging', async () => {
+    const { factory } = faultyFactory(() => 'die');
     const pool = createWorkerPool(factory, { workers: 2 });
     await expect(pool.sunVisibility(sc.bvh, sunInput)).rejects.toBeInstanceOf(TraceChunkError);
+  });
+
+  it('a real Node worker thread that exits mid-run is replaced; the result equals the fault-free run', async () => {
+    const dir = mkdtempSync(path.join(tmpdir(), 'sunfacet-pool-'));
+    process.env.SUNFACET_TEST_DIE_AT = '8';
+    process.env.SUNFACET_TEST_DIE_MARKER = path.join(dir, 'died');
+    try {
+      const pool = createNodeWorkerPool({ workers: 2, workerUrl: new URL('./dyingWorker.ts', import.meta.url) });
+      pools.push(pool);
+      const sky = await pool.skyVisibility(sc.bvh, skyInput, { chunkSize: 4 });
+      expect(existsSync(path.join(dir, 'died'))).toBe(true); // the fault did happen
+      expect(bytes(sky.patchProjectedSr)).toEqual(bytes(directSky.patchProjectedSr));
+      expect(bytes(sky.skyViewFactor)).toEqual(bytes(directSky.skyViewFactor));
+      expect(bytes(sky.groundViewFactor)).toEqual(bytes(directSky.groundViewFactor));
+      await pool.close();
+    } finally {
+      delete process.env.SUNFACET_TEST_DIE_AT;
+      delete process.env.SUNFACET_TEST_DIE_MARKER;
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('bad input throws an InputError before any worker starts', async () => {

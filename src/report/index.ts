@@ -1,0 +1,15 @@
+export { buildReportHtml, CAUTIONS } from './html.ts';
+export type { ReportInput, DesignOptionInput } from './html.ts';
+export { planViewSvg } from './planView.ts';
+export type { PlanViewInput } from './planView.ts';
+export { renderSvg, dayUtciChartSvg, calendarUtciChartSvg } from './charts.ts';
+export { PLAN_METRICS, sensorMetric, zoneUtciSeries, sensorSpacingM, isLongPeriod, STRONG_HEAT_OR_WORSE } from './zoneData.ts';
+export type { PlanMetricId, PlanMetric, ZoneSeries } from './zoneData.ts';
+export { contactFlags, contactGroupOf, BRIEF_TOUCH_THRESHOLDS, LONG_CONTACT_THRESHOLD_C } from './contactBurn.ts';
+export type { ContactGroup, ContactThreshold, MaterialContactFlags } from './contactBurn.ts';
+export { CATEGORY_COLOURS, srgbToLinear } from './palette.ts';
+export { resultsGlb, SURFACE_METRICS, pickStep } from './gltfResults.ts';
+export type { SurfaceMetricId, ResultsGlbOptions } from './gltfResults.ts';
+export { writeGlb } from './gltfWriter.ts';
+export type { GltfMeshInput, GltfDocumentOptions } from './gltfWriter.ts';
+export { esc, fixed, shortTime, shortDate, parseLocal } from './format.ts';
