@@ -16,6 +16,8 @@ export interface LoadedProject {
   projectFile: string;
   weather?: WeatherSeries;
   readRelative: ReadRelative;
+  /** Largest model accepted [triangles] (default 3 M, `DEFAULT_TRIANGLE_LIMIT`). */
+  triangleLimit?: number;
 }
 
 export async function loadProject(text: string, projectFile: string, readRelative: ReadRelative): Promise<LoadedProject> {

@@ -215,7 +215,7 @@ export function crownExtinctionPerM(transmittance: number, verticalPathM: number
 
 /**
  * The season moved by half a year (for a southern-hemisphere site given northern preset dates).
- * @example shiftSeasonHalfYear(s).leafOnDayOfYear // (s.leafOnDayOfYear + 182 - 1) % 365 + 1
+ * @example shiftSeasonHalfYear({ ...s, leafOnDayOfYear: 121, leafOffDayOfYear: 305 }) // leaf on 303, leaf off 122
  */
 export function shiftSeasonHalfYear(season: CrownSeason): CrownSeason {
   const shift = (d: number) => ((d + 182 - 1) % YEAR_DAYS) + 1;

@@ -144,7 +144,7 @@ function timed(cmd: string[], cwd: string): { wallS: number; peakRssMB: number; 
 async function importAndBuild(file: string): Promise<void> {
   const { importModel } = await import('../../src/geometry/import/index.ts');
   const { buildBvh } = await import('../../src/trace/bvh/build.ts');
-  const { checkModelSize } = await import('../../src/geometry/pathologies.ts');
+  const { checkModelSize } = await import('../../src/audit/pathologies.ts');
   const t0 = performance.now();
   const scene = await importModel(new Uint8Array(readFileSync(file)), path.basename(file), { upAxis: 'z' });
   const t1 = performance.now();

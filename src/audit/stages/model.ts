@@ -20,6 +20,7 @@ import { canShareMemory } from '../../trace/pool/shareBuffers.ts';
 import { intersectClosest, makeClosestHit } from '../../trace/bvh/query.ts';
 import { resolveMaterial, type Material } from '../../physics/materials.ts';
 import { InputError } from '../../physics/errors.ts';
+import { checkModelSize, findPathologies, fixFlippedNormals, DEFAULT_TRIANGLE_LIMIT } from '../pathologies.ts';
 
 export const GROUND_SURFACE_NAME = 'ground';
 /** Ground cells farther than NEAR_ZONE_MARGIN_M from every zone: coarser patches (they matter little to a seat). */
@@ -29,6 +30,7 @@ export const GROUND_OUTER_PATCH_M2 = 4;
 /** Margin of the ground apron around the model's footprint [m] (at least this, or half the model's height). */
 export const APRON_MIN_MARGIN_M = 8;
 export const APRON_CELL_M = 1;
+export const MAX_APRON_CELLS = 400_000;
 
 export interface SensorSet {
   zone: ZoneSpec;
@@ -71,15 +73,21 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   if (imported.indices.length === 0) {
     throw new InputError({ file: project.model.file, problem: 'the model has no triangles', expected: 'a model with at least one surface' });
   }
+  checkModelSize(imported, loaded.triangleLimit ?? DEFAULT_TRIANGLE_LIMIT, project.model.file, 'simplify the model, or raise the limit (sunfacet audit --max-triangles N)');
   let scene: SceneArrays = imported;
   const groundZ = project.ground?.z ?? 0;
+  // Geometry pathologies (open or non-manifold edges, duplicated faces, flipped normals, zones off
+  // the model) are reported; flipped triangles are turned back so their normals point outside.
+  const modelBvh = buildBvh(imported.positions, imported.indices);
+  const patho = findPathologies(imported, { zones: project.zones, bvh: modelBvh, ...(project.ground ? { groundZ } : {}) });
+  warnings.push(...patho.warnings);
+  if (patho.flippedTriangles.length > 0) scene = fixFlippedNormals(imported, patho.flippedTriangles);
   if (project.ground) {
-    const modelBvh = buildBvh(imported.positions, imported.indices);
     const near = project.zones.filter((z) => z.polygon).map((z) => {
       const xs = z.polygon!.map((p) => p[0]), ys = z.polygon!.map((p) => p[1]);
       return [Math.min(...xs) - NEAR_ZONE_MARGIN_M, Math.min(...ys) - NEAR_ZONE_MARGIN_M, Math.max(...xs) + NEAR_ZONE_MARGIN_M, Math.max(...ys) + NEAR_ZONE_MARGIN_M] as const;
     });
-    scene = withGroundApron(imported, modelBvh, groundZ, warnings, near);
+    scene = withGroundApron(scene, modelBvh, groundZ, warnings, near);
   } else {
     warnings.push('no "ground" in the project: rays that leave the model below the horizon see a far ground of stone paving at its own temperature');
   }
@@ -195,8 +203,11 @@ function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number,
   const c = APRON_CELL_M;
   const gx0 = Math.floor((x0 - margin) / c) * c, gy0 = Math.floor((y0 - margin) / c) * c;
   const nx = Math.ceil((x1 + margin - gx0) / c), ny = Math.ceil((y1 + margin - gy0) / c);
-  if (nx * ny > 400000) {
-    warnings.push(`ground apron limited: the model spans ${(x1 - x0).toFixed(0)} × ${(y1 - y0).toFixed(0)} m; cells of ${c} m would be ${nx * ny}`);
+  if (nx * ny > MAX_APRON_CELLS) {
+    // A district-sized model: no apron (the analytic far ground stands in everywhere) rather than
+    // millions of cells.
+    warnings.push(`no ground apron: the model spans ${(x1 - x0).toFixed(0)} × ${(y1 - y0).toFixed(0)} m, ${nx * ny} cells of ${c} m would exceed ${MAX_APRON_CELLS}; the ground is the unshaded far ground everywhere`);
+    return scene;
   }
   const keep: number[] = [];
   for (let j = 0; j < ny; j++) {

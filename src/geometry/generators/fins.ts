@@ -1,6 +1,8 @@
 /**
  * Vertical fins on a façade region: thin vertical boxes standing out from a wall segment, evenly
- * spaced along it and centred in it, each turned in plan by an angle from the wall's outward normal.
+ * spaced along it and centred in it (count = floor(length / spacing) + 1, so a segment whose length
+ * is a multiple of the spacing gets a fin at each end), each turned in plan by an angle from the
+ * wall's outward normal about its root line.
  */
 import { DeviceMesh, centredPositions, wallFrame } from './mesh.ts';
 

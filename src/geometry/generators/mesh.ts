@@ -48,6 +48,18 @@ export function centredPositions(lengthM: number, spacingM: number): number[] {
   return out;
 }
 
+/**
+ * Positions of elements each centred in its own band of width `spacingM` across a run of `lengthM`
+ * [m]: count = max(1, floor(L/s)), so no element sits on the run's ends (slats, pergola blades).
+ */
+export function bandPositions(lengthM: number, spacingM: number): number[] {
+  const count = Math.max(1, Math.floor(lengthM / spacingM + 1e-9));
+  const first = (lengthM - (count - 1) * spacingM) / 2;
+  const out: number[] = [];
+  for (let j = 0; j < count; j++) out.push(first + j * spacingM);
+  return out;
+}
+
 export class DeviceMesh {
   readonly positions: number[] = [];
   readonly indices: number[] = [];

@@ -3,9 +3,10 @@
  * - "screen": stacked vertically in front of a wall segment (a louvred screen), or
  * - "pergola": side by side at one height over a terrace polygon (a slatted roof), each blade
  *   clipped to the polygon.
- * Tilt turns a blade about its long axis.
+ * Tilt turns a blade about its long axis. Blades are laid out one per band of `spacingM`, centred
+ * in the range (count = floor(range / spacing), at least 1), so none sits on the range's edge.
  */
-import { DeviceMesh, centredPositions, wallFrame } from './mesh.ts';
+import { DeviceMesh, bandPositions, wallFrame } from './mesh.ts';
 
 interface SlatsCommon {
   type: 'slats';
@@ -51,7 +52,7 @@ export type SlatsSpec = SlatScreenSpec | SlatPergolaSpec;
 
 /** z of each blade's centre for a screen [m]. */
 export function screenSlatHeightsM(spec: Pick<SlatScreenSpec, 'bottomM' | 'topM' | 'spacingM'>): number[] {
-  return centredPositions(spec.topM - spec.bottomM, spec.spacingM).map((s) => spec.bottomM + s);
+  return bandPositions(spec.topM - spec.bottomM, spec.spacingM).map((s) => spec.bottomM + s);
 }
 
 /**
@@ -70,7 +71,7 @@ export function pergolaSlatPieces(spec: Pick<SlatPergolaSpec, 'polygon' | 'slatA
     if (c > cmax) cmax = c;
   }
   const out: [number, number, number][] = [];
-  for (const s of centredPositions(cmax - cmin, spec.spacingM)) {
+  for (const s of bandPositions(cmax - cmin, spec.spacingM)) {
     const c = cmin + s;
     const ts: number[] = [];
     for (let i = 0; i < poly.length; i++) {

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { buildDevices, validateDevices } from '../../../src/geometry/devices.ts';
-import { pergolaSlatPieces } from '../../../src/geometry/generators/slats.ts';
+import { pergolaSlatPieces, screenSlatHeightsM } from '../../../src/geometry/generators/slats.ts';
 import { buildBvh } from '../../../src/trace/bvh/build.ts';
 import { isOccluded } from '../../../src/trace/bvh/query.ts';
 import { areaM2, isClosed, signedVolumeM3, sunDirection, DEG } from './meshChecks.ts';
@@ -11,12 +11,13 @@ const screen = buildDevices(validateDevices([{ type: 'slats', from: [0, 0], to: 
 
 describe('slats: screen geometry', () => {
   it('blade count, closed boxes, spacing, depth', () => {
-    // floor(3 / 0.2) + 1 = 16 blades at z = 0, 0.2, …, 3.0
-    expect(screen.scene.indices.length / 3).toBe(16 * 12);
+    // floor(3 / 0.2) = 15 blades, one centred in each 0.2 m band: z = 0.1, 0.3, …, 2.9
+    expect(screenSlatHeightsM({ bottomM: 0, topM: 3, spacingM: S }).map((z) => Math.round(z * 1e9) / 1e9)).toEqual(Array.from({ length: 15 }, (_, k) => Math.round((0.1 + 0.2 * k) * 1e9) / 1e9));
+    expect(screen.scene.indices.length / 3).toBe(15 * 12);
     expect(isClosed(screen.scene)).toBe(true);
     // source: common practice (box area and volume)
-    expect(areaM2(screen.scene)).toBeCloseTo(16 * 2 * (10 * D + 10 * T + D * T), 2);
-    expect(signedVolumeM3(screen.scene)).toBeCloseTo(16 * 10 * D * T, 4);
+    expect(areaM2(screen.scene)).toBeCloseTo(15 * 2 * (10 * D + 10 * T + D * T), 2);
+    expect(signedVolumeM3(screen.scene)).toBeCloseTo(15 * 10 * D * T, 4);
     const p = screen.scene.positions;
     let ymin = Infinity, ymax = -Infinity;
     for (let i = 1; i < p.length; i += 3) { ymin = Math.min(ymin, p[i]!); ymax = Math.max(ymax, p[i]!); }
@@ -28,11 +29,11 @@ describe('slats: screen geometry', () => {
 describe('slats: shade by the profile angle (closed form)', () => {
   const bvh = screen.scene && buildBvh(screen.scene.positions, screen.scene.indices);
   // Point between the screen and the wall, eps behind the blades' inner edge, just above the blade
-  // at z = 1.4 (top face 1.41). The blade above has its underside at 1.59. A ray rising at the
-  // profile angle φ meets that underside within the blade depth iff z0 + (eps + D)·tan φ >= 1.59.
+  // at z = 1.3 (top face 1.31). The blade above (z = 1.5) has its underside at 1.49. A ray rising at
+  // the profile angle φ meets that underside within the blade depth iff z0 + (eps + D)·tan φ >= 1.49.
   // source: common practice (profile-angle geometry of horizontal louvres, tan φ = tan(alt)/cos(h))
-  const eps = 0.01, z0 = 1.42;
-  const phiCrit = Math.atan((1.4 + S - T / 2 - z0) / (eps + D)) / DEG;
+  const eps = 0.01, z0 = 1.32;
+  const phiCrit = Math.atan((1.5 - T / 2 - z0) / (eps + D)) / DEG;
   const blocked = (altDeg: number, hDeg: number) => {
     const [dx, dy, dz] = sunDirection(altDeg, 180 + hDeg);
     return isOccluded(bvh, 5, -OFF + eps, z0, dx, dy, dz, 1e-6, Infinity);
@@ -63,14 +64,14 @@ describe('slats: pergola over a polygon', () => {
     // L shape: 0..6 × 0..2 plus 0..2 × 2..6 (area 20 m²)
     const polygon = [[0, 0], [6, 0], [6, 2], [2, 2], [2, 6], [0, 6]] as [number, number][];
     const pieces = pergolaSlatPieces({ polygon, slatAzimuthDeg: 90, spacingM: 0.5 });
-    // across-offsets span 6 m → 13 lines; blades on y < 2 run 6 m, above run 2 m
+    // 6 m across → 12 bands, blade lines at y = 0.25 … 5.75; those below y = 2 run 6 m, the rest 2 m
     let len = 0;
     for (const [, t0, t1] of pieces) len += t1 - t0;
-    // source: common practice (blade length = polygon area / spacing, for lines through both ends)
-    expect(pieces.length).toBe(13);
-    expect(len).toBeCloseTo(5 * 6 + 8 * 2, 9);
+    // source: common practice (total blade length = polygon area / spacing with band-centred lines)
+    expect(pieces.length).toBe(12);
+    expect(len).toBeCloseTo(20 / 0.5, 9);
     const b = buildDevices(validateDevices([{ type: 'slats', layout: 'pergola', polygon, heightM: 2.8, depthM: 0.1, spacingM: 0.5 }]));
-    expect(b.scene.indices.length / 3).toBe(13 * 12);
+    expect(b.scene.indices.length / 3).toBe(12 * 12);
     expect(isClosed(b.scene)).toBe(true);
     const p = b.scene.positions;
     for (let i = 2; i < p.length; i += 3) expect(Math.abs(p[i]! - 2.8)).toBeLessThanOrEqual(0.0100001);

@@ -18,7 +18,7 @@
  * typed arrays, so it runs on multi-million-triangle models.
  */
 import { InputError } from '../physics/errors.ts';
-import type { SceneArrays } from './sceneArrays.ts';
+import type { SceneArrays } from '../geometry/sceneArrays.ts';
 import { buildBvh, type BvhData } from '../trace/bvh/build.ts';
 import { intersectClosest, makeClosestHit } from '../trace/bvh/query.ts';
 
@@ -62,6 +62,11 @@ export interface PathologyOptions {
   flipCheckLimit?: number;
   /** Skip the flipped-normal test (no rays). */
   skipFlipCheck?: boolean;
+  /**
+   * Height of the ground plane [m]: open edges lying in it are a massing model's open footprint
+   * (blocks standing on the ground without bottom faces), not a gap, and are not counted.
+   */
+  groundZ?: number;
 }
 
 export interface PathologyReport {
@@ -133,7 +138,7 @@ export function weldVertices(positions: Float32Array, tol: number): { ids: Uint3
 // ---- the checks ---------------------------------------------------------------------------
 
 /** Edge use counts on welded vertices: [open, nonManifold]. */
-function edgeCounts(indices: Uint32Array, weld: Uint32Array): [number, number] {
+function edgeCounts(indices: Uint32Array, weld: Uint32Array, positions?: Float32Array, groundZ?: number): [number, number] {
   const nt = indices.length / 3;
   const size = tableSize(3 * nt), mask = size - 1;
   const ka = new Int32Array(size).fill(-1);
@@ -152,9 +157,16 @@ function edgeCounts(indices: Uint32Array, weld: Uint32Array): [number, number] {
     }
   }
   let open = 0, nonManifold = 0;
+  // Welded ids → a representative vertex, to read an edge's height.
+  let zOf: Float64Array | undefined;
+  if (positions && groundZ !== undefined) {
+    zOf = new Float64Array(weld.length).fill(NaN);
+    for (let v = 0; v < weld.length; v++) zOf[weld[v]!] = positions[3 * v + 2]!;
+  }
+  const onGround = (a: number, b: number) => zOf !== undefined && Math.abs(zOf[a]! - groundZ!) < 1e-3 && Math.abs(zOf[b]! - groundZ!) < 1e-3;
   for (let h = 0; h < size; h++) {
     if (ka[h] === -1) continue;
-    if (uses[h] === 1) open++;
+    if (uses[h] === 1 && !onGround(ka[h]!, kb[h]!)) open++;
     else if (uses[h]! > 2) nonManifold++;
   }
   return [open, nonManifold];
@@ -251,7 +263,7 @@ export function findPathologies(scene: SceneArrays, opts: PathologyOptions = {})
   const warnings: string[] = [];
   const weld = weldVertices(scene.positions, tol).ids;
 
-  const [openEdges, nonManifoldEdges] = edgeCounts(scene.indices, weld);
+  const [openEdges, nonManifoldEdges] = edgeCounts(scene.indices, weld, scene.positions, opts.groundZ);
   if (openEdges > 0) warnings.push(`the model is open: ${openEdges} edge(s) belong to only one triangle (gaps or unclosed solids; inside/outside tests near them may be wrong)`);
   if (nonManifoldEdges > 0) warnings.push(`the model is non-manifold: ${nonManifoldEdges} edge(s) are shared by three or more triangles`);
 

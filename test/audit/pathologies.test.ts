@@ -5,7 +5,7 @@
  */
 import { describe, it, expect } from 'vitest';
 import type { SceneArrays } from '../../src/geometry/sceneArrays.ts';
-import { checkModelSize, DEFAULT_TRIANGLE_LIMIT, findPathologies, fixFlippedNormals, weldVertices } from '../../src/geometry/pathologies.ts';
+import { checkModelSize, DEFAULT_TRIANGLE_LIMIT, findPathologies, fixFlippedNormals, weldVertices } from '../../src/audit/pathologies.ts';
 import { InputError } from '../../src/physics/errors.ts';
 
 /** Builds a scene; each quad gets its own 4 vertices (split seams, as exporters write them). */
