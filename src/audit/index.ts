@@ -8,3 +8,4 @@ export * from './csv.ts';
 export * from './jsonStream.ts';
 export * from './dayTable.ts';
 export * from './shard.ts';
+export * from './options.ts';

@@ -70,7 +70,7 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   let geometry: GeometryData;
   const tGeo = performance.now();
   try {
-    geometry = reuse?.geometry ?? (await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}) }));
+    geometry = reuse?.geometry ?? (await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}) }, loaded.project.site.timeZone));
   } finally {
     if (!opts.tracer) await tracer.close();
   }
@@ -207,7 +207,7 @@ function assembleResults(
       step: glare.paths.step, patch: glare.paths.patch, zone: glare.paths.zone, receiver: glare.paths.receiver,
       point: glare.paths.point, irradianceWm2: glare.paths.irradianceWm2, discFraction: glare.paths.discFraction, offAxisDeg: glare.paths.offAxisDeg,
     },
-    concentration: glare.concentration.slice(0, 200).map(({ step, ...c }) => ({ ...c, time: steps.labels[step]! })),
+    concentration: glare.concentration.slice(0, 200).map((c) => ({ ...c, time: steps.labels[c.step]! })),
     warnings,
     run: {
       software: `sunfacet ${SOFTWARE_VERSION}`,
@@ -259,7 +259,7 @@ export async function runAuditShard(loaded: LoadedProject, shard: { index: numbe
   const tracer = opts.tracer ?? createInProcessExecutor();
   let geo: GeometryData;
   try {
-    geo = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, slice, ...(opts.signal ? { signal: opts.signal } : {}) });
+    geo = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, slice, ...(opts.signal ? { signal: opts.signal } : {}) }, loaded.project.site.timeZone);
   } finally {
     if (!opts.tracer) await tracer.close();
   }

@@ -7,6 +7,7 @@ import { Validator, join } from './validate.ts';
 import { parseIsoTime, zoneOffsetMinutes } from '../physics/time.ts';
 import { InputError } from '../physics/errors.ts';
 import { resolveMaterial } from '../physics/materials.ts';
+import { validateDevices, type DeviceSpec } from '../geometry/devices.ts';
 
 export type Posture = 'standing' | 'seated';
 
@@ -64,6 +65,12 @@ export interface Project {
   sampling: SamplingSpec;
   /** Points with a view (a driver on the lane, a window across the street) that get a glare count. */
   viewpoints: ViewpointSpec[];
+  /** Shading devices and trees of the baseline (src/geometry/devices.ts). */
+  devices: DeviceSpec[];
+  /** Name of the baseline design (default "baseline"). */
+  baselineName: string;
+  /** Design options: each adds devices to the baseline's and overrides materials. */
+  options: DesignOptionSpec[];
 }
 
 /**
@@ -82,7 +89,15 @@ export interface ViewpointSpec {
   fieldDeg: number;
 }
 
-const TOP_KEYS = ['sunfacet', 'name', 'notes', 'site', 'model', 'materials', 'defaultMaterial', 'ground', 'zones', 'period', 'weather', 'sampling', 'viewpoints'] as const;
+const TOP_KEYS = ['sunfacet', 'name', 'notes', 'site', 'model', 'materials', 'defaultMaterial', 'ground', 'zones', 'period', 'weather', 'sampling', 'viewpoints', 'devices', 'baselineName', 'options'] as const;
+
+/** A design option: devices added to the baseline's, and material assignments that replace the baseline's. */
+export interface DesignOptionSpec {
+  name: string;
+  notes?: string;
+  devices: DeviceSpec[];
+  materials: Record<string, MaterialAssignment>;
+}
 
 /** Largest |ground.z| accepted [m] (model coordinates are around the site, not kilometres away). */
 export const GROUND_Z_LIMIT_M = 1000;
@@ -185,7 +200,27 @@ export function validateProject(raw: unknown, file: string): Project {
   viewpoints.forEach((p, i) => {
     if (viewpoints.findIndex((q) => q.name === p.name) !== i) v.fail(`viewpoints[${i}].name`, 'duplicate viewpoint name', 'a name unique among the viewpoints', p.name);
   });
-  return { sunfacet: 1, name, site, model, materials, defaultMaterial, ground, zones, period, weather, sampling, viewpoints };
+  const devices = validateDevices(o.devices, file, { latitudeDeg: site.latitudeDeg });
+  const baselineName = o.baselineName === undefined ? 'baseline' : v.string(o.baselineName, 'baselineName');
+  const options = o.options === undefined ? [] : v.array(o.options, 'options').map((raw, i) => {
+    const path = join('options', i);
+    const op = v.object(raw, path);
+    v.keys(op, path, ['name', 'notes', 'devices', 'materials']);
+    const optName = v.string(op.name, join(path, 'name'));
+    const optMaterials: Record<string, MaterialAssignment> = {};
+    if (op.materials !== undefined) {
+      for (const [k, val] of Object.entries(v.object(op.materials, join(path, 'materials')))) optMaterials[k] = materialAssignment(v, val, `${path}.materials[${JSON.stringify(k)}]`);
+    }
+    const optDevices = validateDevices(op.devices, file, { latitudeDeg: site.latitudeDeg, place: join(path, 'devices') });
+    const clash = optDevices.find((d) => devices.some((b) => b.name === d.name));
+    if (clash) v.fail(join(path, 'devices'), `device name "${clash.name}" is already used by the baseline`, 'names unique across the baseline and the option');
+    return { name: optName, ...(typeof op.notes === 'string' ? { notes: op.notes } : {}), devices: optDevices, materials: optMaterials };
+  });
+  const names = [baselineName, ...options.map((o) => o.name)];
+  names.forEach((n, i) => {
+    if (names.indexOf(n) !== i) v.fail(i === 0 ? 'baselineName' : `options[${i - 1}].name`, 'duplicate design name', 'names unique among the baseline and the options', n);
+  });
+  return { sunfacet: 1, name, site, model, materials, defaultMaterial, ground, zones, period, weather, sampling, viewpoints, devices, baselineName, options };
 }
 
 /** Default half-width of a viewpoint's field of view [°] (glare.ts DEFAULT_GLARE_FIELD_DEG). */

@@ -86,11 +86,12 @@ export interface ConcentrationResult {
   /** Peak reflected irradiance over the period [W/m²], and the DNI of that step [W/m²]. */
   peakWm2: number;
   dniWm2: number;
-  /** Time of the peak (as in `times`). */
+  /** Time of the peak (as in `times`) and its index into `times`. */
   time: string;
+  step: number;
   /** Patches contributing at the peak. */
   patches: number;
-  /** Contributing surfaces (node names) with their share [W/m²], largest first. */
+  /** Contributing surfaces (node names) with their share [W/m²], largest first (at most 10; `patches` counts them all). */
   surfaces: { surface: string; irradianceWm2: number; patches: number }[];
 }
 

@@ -37,6 +37,8 @@ export function encodeGeometryPartial(geo: GeometryData, meta: PartialMeta): Uin
     ['sunIndexOfStep', geo.sunIndexOfStep], ['patchSun', geo.patchSun], ['sensorSun', geo.sensorSun],
     ['patchSkyBand', geo.patchSkyBand], ['sensorSkyBand', geo.sensorSkyBand], ['sensorSkyViewFactor', geo.sensorSkyViewFactor],
     ...viewsArrays('patchViews', geo.patchViews), ...viewsArrays('sensorViews', geo.sensorViews),
+    ...(geo.patchSunTransmittance ? [['patchSunTransmittance', geo.patchSunTransmittance] as [string, Typed]] : []),
+    ...(geo.sensorSunTransmittance ? [['sensorSunTransmittance', geo.sensorSunTransmittance] as [string, Typed]] : []),
   ];
   let offset = 0;
   const table = arrays.map(([name, a]) => {
@@ -98,6 +100,8 @@ export function decodeGeometryPartial(bytes: Uint8Array, file: string): { geo: G
       sunIndexOfStep: need('sunIndexOfStep'), sunCount: h.sunCount, patchSun: need('patchSun'), sensorSun: need('sensorSun'),
       bandCount: h.bandCount, patchSkyBand: need('patchSkyBand'), sensorSkyBand: need('sensorSkyBand'), sensorSkyViewFactor: need('sensorSkyViewFactor'),
       patchViews: views('patchViews', h.directions[0]), sensorViews: views('sensorViews', h.directions[1]), slice: h.slice, timings: {},
+      ...(get.has('patchSunTransmittance') ? { patchSunTransmittance: need<Float32Array>('patchSunTransmittance') } : {}),
+      ...(get.has('sensorSunTransmittance') ? { sensorSunTransmittance: need<Float32Array>('sensorSunTransmittance') } : {}),
     },
   };
 }
@@ -153,6 +157,8 @@ export function mergeGeometry(parts: { geo: GeometryData; meta: PartialMeta; fil
     patchSun: cat((g) => g.patchSun), sensorSun: cat((g) => g.sensorSun),
     patchSkyBand: cat((g) => g.patchSkyBand), sensorSkyBand: cat((g) => g.sensorSkyBand), sensorSkyViewFactor: cat((g) => g.sensorSkyViewFactor),
     patchViews: catViews((g) => g.patchViews), sensorViews: catViews((g) => g.sensorViews),
+    ...(g0.patchSunTransmittance ? { patchSunTransmittance: cat((g) => g.patchSunTransmittance!) } : {}),
+    ...(g0.sensorSunTransmittance ? { sensorSunTransmittance: cat((g) => g.sensorSunTransmittance!) } : {}),
     slice: { patches: [0, m0.patchCount], sensors: [0, m0.sensorCount] },
     timings: {},
   };

@@ -254,7 +254,7 @@ export function specularReflectanceCos(model: SpecularModel, cosIncidence: numbe
  * @example
  * reflectDirection(0, -0.6, 0.8, 0, -1, 0, new Float64Array(3)); // → [0, -0.6, -0.8]
  */
-export function reflectDirection(sx: number, sy: number, sz: number, nx: number, ny: number, nz: number, target: { [i: number]: number }): { [i: number]: number } {
+export function reflectDirection<T extends { [i: number]: number }>(sx: number, sy: number, sz: number, nx: number, ny: number, nz: number, target: T): T {
   const d = 2 * (nx * sx + ny * sy + nz * sz);
   target[0] = d * nx - sx;
   target[1] = d * ny - sy;

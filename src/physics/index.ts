@@ -22,3 +22,5 @@ export * from './wind.ts';
 export * from './mrt.ts';
 export * from './utci.ts';
 export * from './weather/index.ts';
+export * from './fresnel.ts';
+export * from './vegetation.ts';

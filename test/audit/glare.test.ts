@@ -185,9 +185,10 @@ describe('a concave façade of thin vertical glass facets focuses the sun near R
     const lines = ['# invented test scene: concave glass façade (arc of thin vertical facets)'];
     let v = 0;
     for (let k = 0; k < FACETS; k++) {
-      const a0 = (-120 + (60 * k) / FACETS) * DEG, a1 = (-120 + (60 * (k + 1)) / FACETS) * DEG;
+      const a0 = (60 + (60 * k) / FACETS) * DEG, a1 = (60 + (60 * (k + 1)) / FACETS) * DEG;
       const p0 = [C[0] + R * Math.cos(a0), C[1] + R * Math.sin(a0)], p1 = [C[0] + R * Math.cos(a1), C[1] + R * Math.sin(a1)];
-      // Corners ordered so the normal points toward the centre (the concave side, facing south).
+      // An arc north of its centre C, ±30° about due north; corners ordered so the normal points
+      // toward C (the concave side faces south, toward the noon sun).
       lines.push(`o facet-${k}`, 'usemtl glass');
       for (const [x, y, z] of [[p1[0], p1[1], 0], [p0[0], p0[1], 0], [p0[0], p0[1], 20], [p1[0], p1[1], 20]]) lines.push(`v ${x} ${y} ${z}`);
       lines.push(`f ${v + 1} ${v + 2} ${v + 3} ${v + 4}`);
@@ -205,7 +206,7 @@ describe('a concave façade of thin vertical glass facets focuses the sun near R
       lastHour: 12,
       materials: { glass: 'glass-clear' },
       ground: { material: 'stone-paving' },
-      zones: [{ name: 'focus', polygon: [[-2.75, -14.25], [3.75, -14.25], [3.75, -2.75], [-2.75, -2.75]], spacingM: 0.5, posture: 'standing' }],
+      zones: [{ name: 'focus', polygon: [[-2.75, 2.75], [3.75, 2.75], [3.75, 14.25], [-2.75, 14.25]], spacingM: 0.5, posture: 'standing' }],
       sampling: { skyRaysPerPatch: 1, viewRays: 16 },
     });
     (p.zones as Record<string, unknown>[])[0]!.floorZ = 6.9; // sensors at 8 m, in the band the reflected rays cross at the focus
@@ -229,9 +230,10 @@ describe('a concave façade of thin vertical glass facets focuses the sun near R
     // Distance from the mirror along the radius through the peak: R − |peak − C| (horizontal).
     const dist = R - Math.hypot(worst.position[0] - C[0], worst.position[1] - C[1]);
     expect(Math.abs(dist - R / 2)).toBeLessThanOrEqual(0.1 * R);
-    // and it lies toward the sun from the centre: on the focal line through C + (R/2)·û_sun.
+    // and near the focal line through F = C − (R/2)·û_sun (half-way from C to the mirror, for
+    // sunlight arriving along −û_sun).
     const az = r.sun[0]!.azimuthDeg * DEG;
-    const fx = C[0] + (R / 2) * Math.sin(az), fy = C[1] + (R / 2) * Math.cos(az);
+    const fx = C[0] - (R / 2) * Math.sin(az), fy = C[1] - (R / 2) * Math.cos(az);
     expect(Math.hypot(worst.position[0] - fx, worst.position[1] - fy)).toBeLessThanOrEqual(0.1 * R);
     // Same peak seen per sensor in the results.
     const zone = r.zones[0]!;

@@ -10,6 +10,10 @@ import type { TraceExecutor, TraceRunOptions } from '../../trace/pool/types.ts';
 import type { SurfaceViewsResult } from '../../trace/queries/surfaceViews.ts';
 import { SIX_DIRECTIONS } from '../../trace/queries/surfaceViews.ts';
 import { skySubdivision } from '../../physics/skySubdivision.ts';
+import { sunTransmittance } from '../../trace/queries/sunTransmittance.ts';
+import { crownExtinctionForDay } from '../../trace/crowns.ts';
+import { dayOfYearLocal } from '../../physics/vegetation.ts';
+import { zoneOffsetMinutes } from '../../physics/time.ts';
 import type { SamplingSpec } from '../project.ts';
 
 export const SKY_LEVEL = 1;
@@ -18,9 +22,12 @@ export interface GeometryData {
   /** Per step: index of its sun direction, or −1 when the sun is down. */
   sunIndexOfStep: Int32Array;
   sunCount: number;
-  /** P × S and N × S: 1 = the ray to the sun is unobstructed. */
+  /** P × S and N × S: 1 = the ray to the sun is unobstructed (or only semi-transparent). */
   patchSun: Uint8Array;
   sensorSun: Uint8Array;
+  /** With fabric devices or trees: the beam's transmittance along those rays [0, 1] (else absent: 0/1). */
+  patchSunTransmittance?: Float32Array;
+  sensorSunTransmittance?: Float32Array;
   /** Sky bands of the subdivision (radiance is uniform within a band), and per receiver Σ P_k over each band [sr]. */
   bandCount: number;
   patchSkyBand: Float32Array;
@@ -48,23 +55,27 @@ export function sensorPoints(model: PreparedModel): Float64Array {
 }
 
 /** Distinct sun directions (rounded to 1e-5 rad, ≈ 0.0006°) of the steps with the sun up. */
-export function distinctSunDirections(steps: Steps): { sunIndexOfStep: Int32Array; directions: Float64Array } {
+export function distinctSunDirections(steps: Steps, perDay = false): { sunIndexOfStep: Int32Array; directions: Float64Array; stepOfSun: Int32Array } {
   const index = new Int32Array(steps.count).fill(-1);
   const seen = new Map<string, number>();
   const dirs: number[] = [];
+  const firstStep: number[] = [];
   for (let i = 0; i < steps.count; i++) {
     if (!(steps.sunAltitudeDeg[i]! > 0)) continue;
     const x = steps.sunDir[3 * i]!, y = steps.sunDir[3 * i + 1]!, z = steps.sunDir[3 * i + 2]!;
-    const key = `${Math.round(x * 1e5)},${Math.round(y * 1e5)},${Math.round(z * 1e5)}`;
+    // With trees the crowns' leafiness depends on the day, so a direction is only shared within a day.
+    const day = perDay ? `,${Math.floor(steps.timeMs[i]! / 86400000)}` : '';
+    const key = `${Math.round(x * 1e5)},${Math.round(y * 1e5)},${Math.round(z * 1e5)}${day}`;
     let k = seen.get(key);
     if (k === undefined) {
       k = dirs.length / 3;
       seen.set(key, k);
       dirs.push(x, y, z);
+      firstStep.push(i);
     }
     index[i] = k;
   }
-  return { sunIndexOfStep: index, directions: Float64Array.from(dirs) };
+  return { sunIndexOfStep: index, directions: Float64Array.from(dirs), stepOfSun: Int32Array.from(firstStep) };
 }
 
 export interface GeometryPassOptions {
@@ -85,7 +96,7 @@ export function shardSlice(index: number, count: number, patchCount: number, sen
   return { patches: [cut(patchCount, index - 1), cut(patchCount, index)], sensors: [cut(sensorCount, index - 1), cut(sensorCount, index)] };
 }
 
-export async function geometryPass(model: PreparedModel, steps: Steps, sampling: SamplingSpec, tracer: TraceExecutor, opts: GeometryPassOptions = {}): Promise<GeometryData> {
+export async function geometryPass(model: PreparedModel, steps: Steps, sampling: SamplingSpec, tracer: TraceExecutor, opts: GeometryPassOptions = {}, siteTimeZone = '+00:00'): Promise<GeometryData> {
   const timings: Record<string, number> = {};
   const { patches, bvh } = model;
   const ground = model.hasGroundPlane ? { z: model.groundZ } : null;
@@ -94,7 +105,8 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   const N = sensors.length / 3;
   const sky = skySubdivision(SKY_LEVEL);
   const B = sky.bandStart.length;
-  const { sunIndexOfStep, directions } = distinctSunDirections(steps);
+  const tr = model.transmission;
+  const { sunIndexOfStep, directions, stepOfSun } = distinctSunDirections(steps, tr !== undefined && tr.crowns.count > 0);
   const S = directions.length / 3;
   const slice = opts.slice ?? { patches: [0, P] as [number, number], sensors: [0, N] as [number, number] };
   const run = (stage: string, range?: readonly [number, number]): TraceRunOptions => ({
@@ -123,8 +135,27 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   }
   const trianglePatch = Int32Array.from(patches.patchOfTriangle);
   const seed = sampling.seed;
-  const patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
-  const sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
+  let patchSun: Uint8Array, sensorSun: Uint8Array;
+  let patchSunTransmittance: Float32Array | undefined, sensorSunTransmittance: Float32Array | undefined;
+  if (tr) {
+    // Fabric sheets and tree crowns attenuate the beam: trace transmittances (in this thread).
+    const C = tr.crowns.count;
+    const k = new Float64Array(S * C);
+    const kDay = new Float64Array(C);
+    for (let s = 0; s < S; s++) {
+      const t = stepOfSun[s]!;
+      crownExtinctionForDay(tr.crowns, dayOfYearLocal(steps.timeMs[t]!, zoneOffsetMinutes(siteTimeZone, steps.timeMs[t]!)), kDay);
+      k.set(kDay, s * C);
+    }
+    const base = { sunDirections: directions, ground, triangleTransmittance: tr.triangleTransmittance, skipSemiTransparent: tr.skipSemiTransparent, skipOpaque: tr.skipOpaque, crowns: tr.crowns, crownExtinctionPerM: k };
+    patchSunTransmittance = await time('sun through devices on surfaces', async () => sunTransmittance(bvh, { ...base, points: patches.centroids, normals: patches.normals }, pr[0], pr[1]));
+    sensorSunTransmittance = await time('sun through devices on sensors', async () => sunTransmittance(bvh, { ...base, points: sensors }, sr[0], sr[1]));
+    patchSun = Uint8Array.from(patchSunTransmittance, (x) => (x > 0 ? 1 : 0));
+    sensorSun = Uint8Array.from(sensorSunTransmittance, (x) => (x > 0 ? 1 : 0));
+  } else {
+    patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
+    sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
+  }
   const patchSky = await time('sky seen by surfaces', () =>
     tracer.skyVisibility(bvh, { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed }, run('sky seen by surfaces', pr)));
   const sensorSky = await time('sky seen by sensors', () =>
@@ -146,6 +177,8 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
     patchSkyBand: toBands(patchSky.patchProjectedSr, nP, sky.count, sky.bandStart, sky.bandCount),
     sensorSkyBand, sensorSkyViewFactor,
     patchViews, sensorViews, slice, timings,
+    ...(patchSunTransmittance ? { patchSunTransmittance } : {}),
+    ...(sensorSunTransmittance ? { sensorSunTransmittance } : {}),
   };
 }
 

@@ -79,6 +79,8 @@ export const AFTER_IMAGE_COEFFICIENT = 3.59e-5;
 export const DEFAULT_GLARE_FIELD_DEG = 30;
 /** Height of the ground receivers above the apron cells [m] (concentration only). */
 export const GROUND_RECEIVER_HEIGHT_M = 0.02;
+/** Surface name of the outer, coarser ground cells (model.ts GROUND_OUTER_SURFACE_NAME). */
+const GROUND_OUTER_NAME = 'ground-outer';
 /** Disc samples per side (16 directions over the sun's disc). */
 export const GLARE_DISC_SAMPLE_SIDE = 4;
 
@@ -198,7 +200,7 @@ export interface ConcentrationSpot {
   step: number;
   /** Number of patches contributing at the peak. */
   patches: number;
-  /** The contributing surfaces (node names), with their share of the peak [W/m²], largest first. */
+  /** The contributing surfaces (node names), with their share of the peak [W/m²], largest first (at most 10). */
   surfaces: { surface: string; irradianceWm2: number; patches: number }[];
 }
 
@@ -261,10 +263,11 @@ export function glareStage(model: PreparedModel, steps: Steps, geo: GeometryData
     pts.push(v.position[0], v.position[1], v.position[2]);
   });
   const V = viewpoints.length;
-  const groundSurface = p.scene.surfaceNames.indexOf(GROUND_SURFACE_NAME);
-  if (model.hasGroundPlane && groundSurface >= 0) {
+  // Ground cells: the apron ('ground') and, where the model stage makes them, its coarser outer ring.
+  const isGround = p.scene.surfaceNames.map((name) => name === GROUND_SURFACE_NAME || name === GROUND_OUTER_NAME);
+  if (model.hasGroundPlane) {
     for (let i = 0; i < p.count; i++) {
-      if (p.surfaceIds[i] !== groundSurface) continue;
+      if (!isGround[p.surfaceIds[i]!]) continue;
       recv.push({ kind: 2, zone: -1, index: i, posture: null, viewAzDeg: null, fieldDeg: 0 });
       pts.push(p.centroids[3 * i]! + GROUND_RECEIVER_HEIGHT_M * p.normals[3 * i]!, p.centroids[3 * i + 1]! + GROUND_RECEIVER_HEIGHT_M * p.normals[3 * i + 1]!, p.centroids[3 * i + 2]! + GROUND_RECEIVER_HEIGHT_M * p.normals[3 * i + 2]!);
     }
@@ -385,7 +388,7 @@ export function glareStage(model: PreparedModel, steps: Steps, geo: GeometryData
             b.patches++;
             bySurface.set(name, b);
           }
-          peakSurfaces[r] = [...bySurface.values()].map((b) => ({ ...b, irradianceWm2: r1(b.irradianceWm2) })).sort((a, b) => b.irradianceWm2 - a.irradianceWm2);
+          peakSurfaces[r] = [...bySurface.values()].map((b) => ({ ...b, irradianceWm2: r1(b.irradianceWm2) })).sort((a, b) => b.irradianceWm2 - a.irradianceWm2 || (a.surface < b.surface ? -1 : 1)).slice(0, 10);
         }
       }
       first[r] = -1;

@@ -18,7 +18,11 @@ import { sensorGridForPolygon, sensorGridOnSurface } from '../../geometry/zones.
 import { buildBvh, type BvhData } from '../../trace/bvh/build.ts';
 import { canShareMemory } from '../../trace/pool/shareBuffers.ts';
 import { intersectClosest, makeClosestHit } from '../../trace/bvh/query.ts';
-import { resolveMaterial, type Material } from '../../physics/materials.ts';
+import { resolveMaterial, materialPresetIds, type Material } from '../../physics/materials.ts';
+import { buildDevices, type DeviceBuild } from '../../geometry/devices.ts';
+import type { CrownSet } from '../../geometry/generators/tree.ts';
+
+const PRESET_IDS = new Set(materialPresetIds());
 import { InputError } from '../../physics/errors.ts';
 import { checkModelSize, findPathologies, fixFlippedNormals, DEFAULT_TRIANGLE_LIMIT } from '../pathologies.ts';
 
@@ -53,6 +57,11 @@ export interface PreparedModel {
   groundZ: number;
   hasGroundPlane: boolean;
   sensors: SensorSet[];
+  /**
+   * Present when devices have fabric sheets or trees: what the sun's beam passes through
+   * (per BVH triangle, original index) and the tree crowns.
+   */
+  transmission: { triangleTransmittance: Float32Array; skipSemiTransparent: Uint8Array; skipOpaque: Uint8Array; crowns: CrownSet } | undefined;
   /** Bytes of the model file, for its hash in the run record. */
   modelBytes: Uint8Array;
   warnings: string[];
@@ -82,6 +91,15 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   const patho = findPathologies(imported, { zones: project.zones, bvh: modelBvh, ...(project.ground ? { groundZ } : {}) });
   warnings.push(...patho.warnings);
   if (patho.flippedTriangles.length > 0) scene = fixFlippedNormals(imported, patho.flippedTriangles);
+  // Shading devices and trees: generated triangles (fins, slats, canopies, umbrellas, trunks) join
+  // the scene as surfaces of their own; fabric sheets and crowns only attenuate the beam.
+  let devices: DeviceBuild | undefined;
+  if (project.devices.length > 0) {
+    const before = scene.warnings.length;
+    devices = buildDevices(project.devices, scene);
+    scene = devices.scene;
+    warnings.push(...scene.warnings.slice(before));
+  }
   if (project.ground) {
     const near = project.zones.filter((z) => z.polygon).map((z) => {
       const xs = z.polygon!.map((p) => p[0]), ys = z.polygon!.map((p) => p[1]);
@@ -128,6 +146,9 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
     if (matName !== '' && project.materials[matName] !== undefined) {
       usedKeys.add(matName);
       triMaterial[t] = resolveKey('m:' + matName, project.materials[matName]!, `materials[${JSON.stringify(matName)}]`);
+    } else if (matName !== '' && PRESET_IDS.has(matName)) {
+      // A material named like a preset (devices name theirs so) takes that preset.
+      triMaterial[t] = resolveKey('p:' + matName, matName, `material "${matName}"`);
     } else triMaterial[t] = defaultIdx;
   }
   for (const key of Object.keys(project.materials)) {
@@ -139,6 +160,19 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   const patches = buildPatches(sceneForPatches, { targetAreaM2: 1, ...(outer >= 0 && project.ground ? { targetAreaBySurface: new Map([[outer, GROUND_OUTER_PATCH_M2]]) } : {}) });
   const patchMaterial = Uint16Array.from(patches.materialIds);
   const bvh = buildBvh(patches.scene.positions, patches.scene.indices, { shared: canShareMemory() });
+  let transmission: PreparedModel['transmission'];
+  if (devices && (devices.hasSemiTransparent || devices.crowns.count > 0)) {
+    const nt = patches.scene.indices.length / 3;
+    const triangleTransmittance = new Float32Array(nt);
+    const skipSemiTransparent = new Uint8Array(nt), skipOpaque = new Uint8Array(nt);
+    for (let t = 0; t < nt; t++) {
+      const tau = devices.surfaceTransmittance[patches.scene.surfaceIds[t]!] ?? 0;
+      triangleTransmittance[t] = tau;
+      if (tau > 0) skipSemiTransparent[t] = 1;
+      else skipOpaque[t] = 1;
+    }
+    transmission = { triangleTransmittance, skipSemiTransparent, skipOpaque, crowns: devices.crowns };
+  }
 
   const insideSolid = (x: number, y: number, z: number) => insideByRayParity(bvh, x, y, z);
   const sensors: SensorSet[] = project.zones.map((zone, i) => {
@@ -153,7 +187,7 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
   });
   return {
     patches, scene: patches.scene, bvh, materials, materialLabels, patchMaterial, groundMaterial, groundZ,
-    hasGroundPlane: project.ground !== undefined, sensors, modelBytes: bytes, warnings,
+    hasGroundPlane: project.ground !== undefined, sensors, transmission, modelBytes: bytes, warnings,
   };
 }
 

@@ -177,8 +177,10 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
     for (let i = 0; i < P; i++) {
       let e = 0;
       if (sunIdx >= 0 && geo.patchSun[i * S + sunIdx] === 1) {
+        // Fabric sheets and crowns pass part of the beam (transmittance 1 when there are none).
+        const tau = geo.patchSunTransmittance ? geo.patchSunTransmittance[i * S + sunIdx]! : 1;
         const c = model.patches.normals[3 * i]! * sx + model.patches.normals[3 * i + 1]! * sy + model.patches.normals[3 * i + 2]! * sz;
-        if (c > 0) e += beamNormal * c;
+        if (c > 0) e += beamNormal * c * tau;
       }
       const o = i * B;
       for (let b = 0; b < B; b++) e += bandRadiance[b]! * geo.patchSkyBand[o + b]!;
@@ -299,7 +301,8 @@ export function runTimeSteps(model: PreparedModel, steps: Steps, geo: GeometryDa
       for (let k = n0; k < n0 + count; k++) {
         const lit = sunIdx >= 0 && geo.sensorSun[k * S + sunIdx] === 1;
         // Direct beam fp·I plus the reflected-sun beams Σ fp·E, passed as one term with fp = 1.
-        const beamTerm = (lit ? beamNormal * fp : 0) + (specularBeamTermWm2 === undefined ? 0 : specularBeamTermWm2[k * T + t]!);
+        const tauSensor = lit && geo.sensorSunTransmittance ? geo.sensorSunTransmittance[k * S + sunIdx]! : 1;
+        const beamTerm = (lit ? beamNormal * fp * tauSensor : 0) + (specularBeamTermWm2 === undefined ? 0 : specularBeamTermWm2[k * T + t]!);
         const mrt = mrtSixDirectionalPackedC(sK, 6 * k, sL, 6 * k, posture, beamTerm, 1);
         utciClampedC({ airTempC: ta, mrtC: mrt, wind10mMs: v10, relativeHumidityPct: steps.relativeHumidityPct[t]! }, clamp);
         if (clamp.clamped) {
