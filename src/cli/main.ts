@@ -13,8 +13,9 @@ import { dayCommand } from './commands/day.ts';
 import { auditCommand } from './commands/audit.ts';
 import { mergeCommand } from './commands/merge.ts';
 import { reportCommand } from './commands/report.ts';
+import { compareCommand } from './commands/compare.ts';
 
-export const COMMANDS: Command[] = [auditCommand, mergeCommand, reportCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
+export const COMMANDS: Command[] = [auditCommand, compareCommand, mergeCommand, reportCommand, demoCommand, dayCommand, sunCommand, comfortCommand];
 
 const CAUTION =
   'Sunfacet screens designs; it does not certify them. Results depend on the inputs and the model\n' +
