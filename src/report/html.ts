@@ -150,7 +150,11 @@ async function zonePage(input: ReportInput, zi: number, metricId: PlanMetricId, 
     const zero = c.meanHours === 0 && c.maxHours === 0;
     return `<tr class="${zero ? 'zero' : ''}"><td><span class="swatch" style="background:${CATEGORY_COLOURS[c.id]}"></span>${esc(c.label)}</td><td class="r">${sv(`${path}.categoryHours.${ci}.meanHours`, c.meanHours)}</td><td class="r">${sv(`${path}.categoryHours.${ci}.maxHours`, c.maxHours)}</td></tr>`;
   });
-  const glare = (results as unknown as { glare?: unknown }).glare;
+  const g = zs.glare;
+  const glareCell = g === undefined
+    ? 'not assessed in this run'
+    : `${sv(`${path}.glare.glareHours.meanHours`, g.glareHours.meanHours)} h</div><div class="w">mean per sensor with reflected sun that can leave an after-image or worse; ${sv(`${path}.glare.glareHours.maxHours`, g.glareHours.maxHours)} h at the worst sensor` +
+      (g.peakReflected ? `; strongest reflected sun ${sv(`${path}.glare.peakReflected.valueWm2`, g.peakReflected.valueWm2, 0)} W/m² at ${esc(shortTime(g.peakReflected.time))}` : '; no reflected sun reaches the zone');
   return `
 <h1 class="zone-title">Zone: ${esc(zone.name)}</h1>
 <p class="sub">${esc(zone.posture)} · sensors <span class="num" data-summary="${path}.sensors">${zs.sensors}</span> at <span class="num" data-summary="${path}.sensorHeightM">${esc(String(zs.sensorHeightM))}</span> m above the floor${zs.droppedSensors ? ` · <span class="num" data-summary="${path}.droppedSensors">${zs.droppedSensors}</span> inside solids dropped` : ''} · median sky view factor ${sv(`${path}.medianSkyViewFactor`, zs.medianSkyViewFactor, 2)}</p>
@@ -160,7 +164,7 @@ async function zonePage(input: ReportInput, zi: number, metricId: PlanMetricId, 
     <div class="key"><div class="k">Peak MRT</div><div class="v">${sv(`${path}.peakMrt.valueC`, pm?.valueC)} °C</div><div class="w">${esc(shortTime(pm?.time))}; ${esc(where(pm))}</div></div>
     <div class="key"><div class="k">Peak UTCI</div><div class="v">${sv(`${path}.peakUtci.valueC`, pu?.valueC)} °C</div><div class="w">${esc(shortTime(pu?.time))}; ${esc(where(pu))}</div></div>
     <div class="key"><div class="k">Hours with MRT above ${sv(`${path}.mrtAbove.thresholdC`, zs.mrtAbove.thresholdC, 0)} °C</div><div class="v">${sv(`${path}.mrtAbove.meanHours`, zs.mrtAbove.meanHours)} h</div><div class="w">mean per sensor; ${sv(`${path}.mrtAbove.maxHours`, zs.mrtAbove.maxHours)} h at the worst sensor</div></div>
-    <div class="key"><div class="k">Glare hours</div><div class="v small">${glare === undefined ? 'not assessed in this run' : esc(JSON.stringify(glare))}</div></div>
+    <div class="key"><div class="k">Glare hours</div><div class="v${g === undefined ? ' small' : ''}">${glareCell}</div></div>
   </div>
 </div>
 <figure class="chart">${chart}<figcaption>${long ? 'Mean UTCI at each clock hour over each month, for the median sensor and the hottest sensor of each step; cells coloured by the stress category of the mean.' : 'UTCI of the median sensor and of the hottest sensor at each step, with the air temperature, over the UTCI stress categories.'}</figcaption></figure>
@@ -228,13 +232,13 @@ function methodPage(results: Results, run: Record<string, unknown>, record: RunR
   const sampling = (run.sampling ?? {}) as Record<string, unknown>;
   const modelNames: Record<string, string> = {
     sun: 'Sun position', clearSky: 'Clear-sky irradiance', sky: 'Sky diffuse radiance', convection: 'Convection', skyLongwave: 'Sky longwave',
-    mrt: 'Mean radiant temperature', utci: 'UTCI', reflection: 'Reflection between surfaces',
+    mrt: 'Mean radiant temperature', utci: 'UTCI', reflection: 'Reflection between surfaces', glare: 'Glare',
   };
   const modelRows = Object.entries(models).map(([k, v]) => `<tr><th>${esc(modelNames[k] ?? k)}</th><td>${esc(str(v))}</td></tr>`);
   modelRows.push(
     '<tr><th>Surface heat balance</th><td>absorbed shortwave (two solar bands) and longwave − emitted εσT⁴ − convection − conduction, with transient 1-D finite-difference conduction through each layered construction; ' +
       `${esc(str(run.spinUpSteps))} spin-up steps before the period; largest energy-balance residual ${esc(str(run.energyBalanceMaxResidualPct))} %</td></tr>`,
-    '<tr><th>Glare</th><td>not assessed in this run</td></tr>',
+    ...(models.glare !== undefined ? [] : [results.glare === undefined ? '<tr><th>Glare</th><td>not assessed in this run</td></tr>' : `<tr><th>Glare</th><td>${esc(results.glare.criterion)}</td></tr>`]),
   );
   const timings = record ? Object.entries(record.timingsMs).map(([k, v]) => `${esc(k)} ${(v / 1000).toFixed(1)} s`).join('; ') : '';
   return `<div class="methodpage">
@@ -251,7 +255,7 @@ function methodPage(results: Results, run: Record<string, unknown>, record: RunR
 <ul>
 <li>Wind flow around the buildings is not simulated: the wind at each height comes from the 10 m wind by a profile law, the same everywhere on the site.</li>
 <li>Evaporative cooling (wet surfaces, irrigated lawns, trees' transpiration, misting, water features) is not modelled.</li>
-<li>Reflection between surfaces is diffuse; specular reflection from glass and metal is not yet traced, so glare and focused reflections are not assessed.</li>
+<li>${results.glare === undefined ? 'Reflection between surfaces is diffuse; specular reflection from glass and metal is not traced in this run, so glare and focused reflections are not assessed.' : 'Reflection between surfaces: the matte part is diffuse; the mirror-like part of glass, metal and water is traced from the solar disc to the sensors and viewpoints (glare, concentration) and enters their MRT as a beam. Reflected sun does not heat the surfaces it lands on.'}</li>
 <li>The ground under and around the model is a ground apron of 1 m cells with its own heat balance; beyond it an open far ground at its own temperature.</li>
 <li>Materials are presets with typical properties; real products vary. People are standard (shortwave absorptance 0.7, emissivity 0.97), not a particular person, posture or clothing beyond the UTCI's own assumptions.</li>
 <li>Time stamps: ${esc(results.timeConvention)}.</li>
