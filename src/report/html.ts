@@ -153,8 +153,8 @@ async function zonePage(input: ReportInput, zi: number, metricId: PlanMetricId, 
   const g = zs.glare;
   const glareCell = g === undefined
     ? 'not assessed in this run'
-    : `${sv(`${path}.glare.glareHours.meanHours`, g.glareHours.meanHours)} h</div><div class="w">mean per sensor with reflected sun that can leave an after-image or worse; ${sv(`${path}.glare.glareHours.maxHours`, g.glareHours.maxHours)} h at the worst sensor` +
-      (g.peakReflected ? `; strongest reflected sun ${sv(`${path}.glare.peakReflected.valueWm2`, g.peakReflected.valueWm2, 0)} W/m² at ${esc(shortTime(g.peakReflected.time))}` : '; no reflected sun reaches the zone');
+    : `${sv(`${path}.glare.glareHours.meanHours`, g.glareHours.meanHours)} h</div><div class="w">mean per sensor (after-image or worse); ${sv(`${path}.glare.glareHours.maxHours`, g.glareHours.maxHours)} h at the worst` +
+      (g.peakReflected ? `; strongest ${sv(`${path}.glare.peakReflected.valueWm2`, g.peakReflected.valueWm2)} W/m², ${esc(shortTime(g.peakReflected.time))}` : '; no reflected sun arrives');
   return `
 <h1 class="zone-title">Zone: ${esc(zone.name)}</h1>
 <p class="sub">${esc(zone.posture)} · sensors <span class="num" data-summary="${path}.sensors">${zs.sensors}</span> at <span class="num" data-summary="${path}.sensorHeightM">${esc(String(zs.sensorHeightM))}</span> m above the floor${zs.droppedSensors ? ` · <span class="num" data-summary="${path}.droppedSensors">${zs.droppedSensors}</span> inside solids dropped` : ''} · median sky view factor ${sv(`${path}.medianSkyViewFactor`, zs.medianSkyViewFactor, 2)}</p>
@@ -315,7 +315,8 @@ tr.zero td { color: #999; }
 .mats td, .mats th { font-size: 8.5pt; padding: 1mm 1.5mm; }
 .nw { white-space: nowrap; }
 .method th, .method td { font-size: 9.5pt; padding-top: 0.8mm; padding-bottom: 0.8mm; }
-.methodpage li { font-size: 9.5pt; }
+.methodpage li { font-size: 9pt; margin-bottom: 1pt; }
+.methodpage table.method td, .methodpage table.method th { font-size: 8.5pt; padding-top: 1.5pt; padding-bottom: 1.5pt; }
 .maps { display: flex; flex-wrap: wrap; gap: 4mm; }
 code { font-size: 9.5pt; }
 ul { padding-left: 5mm; margin: 1mm 0; }

@@ -80,11 +80,13 @@ describe('report HTML', () => {
     }
   });
 
-  it('carries the cautions, the zone names, the model hash and "not assessed" for glare', () => {
+  it('carries the cautions, the zone names, the model hash and the glare hours', () => {
     for (const c of CAUTIONS) expect(html).toContain(c.replace(/'/g, '&#39;'));
     for (const z of summary.zones) expect(html).toContain(`Zone: ${z.name}`);
     expect(html).toContain(String(results.run.modelHashFnv1a32));
-    expect(html).toContain('not assessed in this run');
+    // the audit now traces reflected sun: the zone pages carry glare hours (issue 7)
+    expect(html).toContain('Glare hours');
+    expect(html).not.toContain('not assessed in this run');
     expect(html).not.toContain('Design options'); // no options given
     expect(html).not.toMatch(/<script|https?:\/\/(?!www\.w3\.org)/); // self-contained, no network
   });
