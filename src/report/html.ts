@@ -43,6 +43,8 @@ export interface ReportInput {
   scale?: ScaleId;
   /** Design options; the options section appears only when this is non-empty. */
   options?: readonly DesignOptionInput[];
+  /** Name of the base design the options are compared with (default "base"). */
+  baselineName?: string;
   /** When the report was made (ISO); default now. */
   madeAt?: string;
 }
@@ -197,7 +199,8 @@ function optionsPage(input: ReportInput, metricId: PlanMetricId, stepHours: numb
   const options = input.options ?? [];
   const metric = PLAN_METRICS[metricId];
   const heat = (z: ZoneSummary | undefined) => (z ? STRONG_HEAT_OR_WORSE.map((id) => z.categoryHours.find((c) => c.id === id)?.meanHours ?? 0).reduce((a, b) => a + b, 0) : NaN);
-  const head = `<tr><th>zone</th><th class="r">base</th>${options.map((o) => `<th class="r">${esc(o.name)}</th>`).join('')}</tr>`;
+  const baseName = input.baselineName ?? 'base';
+  const head = `<tr><th>zone</th><th class="r">${esc(baseName)}</th>${options.map((o) => `<th class="r">${esc(o.name)}</th>`).join('')}</tr>`;
   const body = summary.zones.map((z) => {
     const cells = options.map((o) => {
       const oz = o.summary.zones.find((x) => x.name === z.name);
@@ -216,8 +219,12 @@ function optionsPage(input: ReportInput, metricId: PlanMetricId, stepHours: numb
       const base = sensorMetric(zone, metricId, stepHours);
       const alt = sensorMetric(oz, metricId, o.summary.period.stepHours);
       const diff = base.map((b, i) => (alt[i] ?? NaN) - b);
+      if (diff.every((d) => !Number.isFinite(d) || Math.abs(d) < 0.05)) {
+        maps.push(`<p class="note">${esc(o.name)} · ${esc(zone.name)}: no change against ${esc(baseName)}.</p>`);
+        continue;
+      }
       const span = Math.max(1e-6, ...diff.filter(Number.isFinite).map(Math.abs));
-      maps.push(`<figure class="diff">${planViewSvg({ zone, values: diff, label: `${o.name} minus base: ${metric.label}`, unit: metric.unit, decimals: metric.decimals, scale: 'cividis', range: { min: -span, max: span }, widthPx: 320 })}<figcaption>${esc(o.name)} · ${esc(zone.name)}</figcaption></figure>`);
+      maps.push(`<figure class="diff">${planViewSvg({ zone, values: diff, label: `${o.name} − ${baseName}: ${metric.label}`, unit: metric.unit, decimals: metric.decimals, scale: 'cividis', range: { min: -span, max: span }, widthPx: 320 })}<figcaption>${esc(o.name)} · ${esc(zone.name)}</figcaption></figure>`);
     }
   }
   return `

@@ -27,6 +27,7 @@ import { createBrowserWorkerPool } from '../../trace/pool/browserWorkers.ts';
 import type { Results } from '../../audit/results.ts';
 import { buildSteps } from '../../audit/stages/steps.ts';
 import { matchPatchesToResults } from './patchMatch.ts';
+import { compareDesigns, designProjects, runDesigns, type Comparison, type DesignRun } from '../../audit/options.ts';
 
 /** A model ready to draw: the Scene arrays in the model frame (x, y horizontal, z up) [m]. */
 export interface ModelView {
@@ -89,7 +90,33 @@ export interface SunPath {
   sun: { altitudeDeg: number; azimuthDeg: number }[];
 }
 
+/** Progress of a run over all designs: the audit's progress plus which design (0-based) of how many. */
+export interface DesignsProgress extends AuditProgress {
+  design: number;
+  designs: number;
+}
+
+/** One design's run for the viewer. */
+export interface DesignOutcome {
+  name: string;
+  results: Results;
+  patches: PatchView | null;
+  reusedGeometry: boolean;
+}
+
+export interface DesignsOutcome {
+  designs: DesignOutcome[];
+  /** Every option against the baseline (compareDesigns). */
+  comparison: Comparison;
+  baselineName: string;
+  timingsMs: { total: number };
+}
+
 export interface AuditApi {
+  /** Audits the baseline and every option (runDesigns), keeping the runs for `compareDesignPair`. */
+  runDesigns(jobId: number, job: AuditJob, onProgress?: (p: DesignsProgress) => void): Promise<DesignsOutcome>;
+  /** `option` against `reference` (as compareDesigns with the reference as baseline) from the last runDesigns. */
+  compareDesignPair(option: string, reference: string): Promise<Comparison>;
   openModel(bytes: Uint8Array, fileName: string, opts: { upAxis?: 'y' | 'z'; unitsPerMeter?: number }): Promise<ModelView>;
   sunPath(job: AuditJob): Promise<SunPath>;
   runAudit(jobId: number, job: AuditJob, onProgress?: (p: AuditProgress) => void): Promise<AuditOutcome>;
@@ -198,7 +225,57 @@ export async function planReuse(
 export function createAuditApi(): AuditApi {
   const jobs = new Map<number, AbortController>();
   let cache: CachedRun | null = null;
+  let designRuns: DesignRun[] = [];
   return {
+    async runDesigns(jobId, job, onProgress) {
+      const ctrl = new AbortController();
+      jobs.set(jobId, ctrl);
+      const t0 = performance.now();
+      try {
+        const loaded = await loadProject(job.projectText, job.projectFile, makeReadRelative(job.files, job.baseUrl));
+        const designs = designProjects(loaded.project);
+        const names = designs.map((d) => d.name);
+        let last = 0;
+        let lastStage = '';
+        const report = (p: AuditProgress) => {
+          const now = Date.now();
+          if (p.stage !== lastStage || p.done >= p.total || now - last >= PROGRESS_INTERVAL_MS) {
+            last = now;
+            lastStage = p.stage;
+            // runDesigns prefixes each stage with "<design name>: "
+            const design = Math.max(0, names.findIndex((n) => p.stage.startsWith(`${n}: `)));
+            void onProgress?.({ stage: p.stage, done: p.done, total: p.total, design, designs: names.length });
+          }
+        };
+        cache = null; // the single-design cache would hold a second BVH
+        designRuns = [];
+        const runs = await runDesigns(loaded, { signal: ctrl.signal, onProgress: report });
+        ctrl.signal.throwIfAborted();
+        designRuns = runs;
+        const comparison = compareDesigns(runs, loaded.project.baselineName);
+        const out: DesignOutcome[] = [];
+        const buffers: ArrayBuffer[] = [];
+        for (const r of runs) {
+          // The display patches of each design (its devices add patches); no tracing here.
+          const d = designs.find((x) => x.name === r.name)!;
+          const model = await prepareModel({ ...loaded, project: d.project });
+          const patches = patchView(model.patches, r.results);
+          if (patches) buffers.push(patches.positions.buffer as ArrayBuffer, patches.patchOfTriangle.buffer as ArrayBuffer, patches.resultIndex.buffer as ArrayBuffer);
+          out.push({ name: r.name, results: r.results, patches, reusedGeometry: r.reusedGeometry });
+        }
+        return transfer({ designs: out, comparison, baselineName: loaded.project.baselineName, timingsMs: { total: Math.round(performance.now() - t0) } }, buffers);
+      } finally {
+        jobs.delete(jobId);
+      }
+    },
+
+    async compareDesignPair(option, reference) {
+      const ref = designRuns.find((r) => r.name === reference);
+      const opt = designRuns.find((r) => r.name === option);
+      if (!ref || !opt) throw new Error(`no run of "${!ref ? reference : option}": run all designs first`);
+      return compareDesigns([ref, opt], reference);
+    },
+
     async openModel(bytes, fileName, opts) {
       const scene = await importModel(bytes, fileName, { ...opts, northDeg: 0 });
       const view: ModelView = {

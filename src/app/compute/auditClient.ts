@@ -4,14 +4,15 @@
  * that cannot be interrupted), the worker is terminated and a fresh one started.
  */
 import { proxy, releaseProxy, wrap, type Remote } from 'comlink';
-import type { AuditApi, AuditJob, AuditOutcome, ModelView, SunPath } from './auditApi.ts';
+import type { AuditApi, AuditJob, AuditOutcome, DesignsOutcome, DesignsProgress, ModelView, SunPath } from './auditApi.ts';
+import type { Comparison } from '../../audit/options.ts';
 import type { AuditProgress } from '../../audit/pipeline.ts';
 
 /** How long a cancelled run may take to stop before its worker is terminated [ms]. */
 const CANCEL_GRACE_MS = 1500;
 
-export interface RunHandle {
-  promise: Promise<AuditOutcome>;
+export interface RunHandle<T = AuditOutcome> {
+  promise: Promise<T>;
   cancel(): void;
 }
 
@@ -48,12 +49,25 @@ export class AuditClient {
   }
 
   run(job: AuditJob, onProgress: (p: AuditProgress) => void): RunHandle {
+    return this.cancellable((api, id) => api.runAudit(id, job, proxy(onProgress)));
+  }
+
+  /** Runs the baseline and every option. */
+  runDesigns(job: AuditJob, onProgress: (p: DesignsProgress) => void): RunHandle<DesignsOutcome> {
+    return this.cancellable((api, id) => api.runDesigns(id, job, proxy(onProgress)));
+  }
+
+  compareDesignPair(option: string, reference: string): Promise<Comparison> {
+    return this.api().compareDesignPair(option, reference);
+  }
+
+  private cancellable<T>(start: (api: Remote<AuditApi>, id: number) => Promise<T>): RunHandle<T> {
     const id = this.nextJob++;
     const api = this.api();
     let settled = false;
     let rejectCancel: (e: unknown) => void = () => {};
     const cancelled = new Promise<never>((_, reject) => (rejectCancel = reject));
-    const work = api.runAudit(id, job, proxy(onProgress));
+    const work = start(api, id);
     const promise = Promise.race([work, cancelled]).finally(() => (settled = true));
     return {
       promise,

@@ -7,13 +7,14 @@ import type { AuditJob } from './auditApi.ts';
 import { heavy } from '../state/heavy.ts';
 import { initialRun, useViewer } from '../state/store.ts';
 import { checkDoc, parseProjectDoc, setWeatherFile, type ProjectDoc } from '../state/projectDoc.ts';
+import { designNames } from '../state/designDoc.ts';
 import { base64ToBytes, makeSavedState, readAutosave, writeAutosave } from '../state/persist.ts';
 
 const DEMO_FOLDER = 'demo/';
 /** Trace workers when the page is cross-origin isolated. */
 const TRACE_WORKERS = 2;
 const client = new AuditClient();
-let current: RunHandle | null = null;
+let current: RunHandle<unknown> | null = null;
 
 function demoUrl(rel: string): string {
   return new URL(DEMO_FOLDER + rel, document.baseURI).href;
@@ -60,6 +61,8 @@ async function showModel(bytes: Uint8Array, fileName: string, doc: ProjectDoc, s
   heavy.modelBytes = bytes;
   heavy.results = null;
   heavy.patches = null;
+  heavy.designs = null;
+  heavy.pair = null;
   const s = useViewer.getState();
   s.set({
     doc,
@@ -74,6 +77,13 @@ async function showModel(bytes: Uint8Array, fileName: string, doc: ProjectDoc, s
     tool: 'look',
     viewMode: 'model',
     run: initialRun,
+    designsVersion: 0,
+    activeDesign: '',
+    compareOption: '',
+    compareReference: '',
+    pairVersion: 0,
+    zoneExtra: 'none',
+    selectedDevice: null,
   });
   if (view.warnings.length > 0) notify('info', `${fileName}: ${view.warnings.slice(0, 3).join('; ')}${view.warnings.length > 3 ? ` (+${view.warnings.length - 3} more)` : ''}`);
   refreshSunPath();
@@ -231,7 +241,7 @@ export function startRun(): void {
   }
   cancelRun();
   const now = Date.now();
-  s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now } });
+  s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now, kind: 'single' } });
   const handle = client.run(job(doc), (p) => {
     const r = useViewer.getState().run;
     if (r.status !== 'running' || current !== handle) return;
@@ -255,6 +265,8 @@ export function startRun(): void {
       current = null;
       heavy.results = out.results;
       heavy.patches = out.patches;
+      heavy.designs = null;
+      heavy.pair = null;
       const st = useViewer.getState();
       const n = out.results.times.length;
       st.set({
@@ -264,6 +276,10 @@ export function startRun(): void {
         timeIndex: Math.min(Math.max(0, st.timeIndex), n - 1),
         picked: null,
         run: { ...st.run, status: 'done', stagesDone: [...st.run.stagesDone, st.run.stage], elapsedS: (Date.now() - st.run.startedMs) / 1000, reused: out.reused, traceWorkers: out.traceWorkers },
+        designsVersion: 0,
+        pairVersion: 0,
+        activeDesign: '',
+        zoneExtra: st.zoneExtra === 'mrtChange' ? 'none' : st.zoneExtra,
       });
       if (out.results.warnings.length > 0) notify('info', `The audit finished with ${out.results.warnings.length} note(s): ${out.results.warnings[0]}`);
     },
@@ -276,6 +292,115 @@ export function startRun(): void {
       if (!aborted) notify('error', `The audit failed: ${errorText(e)}`);
     },
   );
+}
+
+/**
+ * Audits the baseline and every option (the worker's runDesigns); afterwards the baseline is shown
+ * and the first option is compared with it.
+ */
+export function startDesignsRun(): void {
+  const s = useViewer.getState();
+  const doc = s.doc;
+  if (!doc || !heavy.modelBytes) {
+    notify('error', 'Open a model first.');
+    return;
+  }
+  const check = checkDoc(doc);
+  if (!check.ok) {
+    notify('error', check.message);
+    return;
+  }
+  cancelRun();
+  const now = Date.now();
+  const names = designNames(doc);
+  s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now, kind: 'designs', design: 0, designs: names.length } });
+  const handle = client.runDesigns(job(doc), (p) => {
+    const r = useViewer.getState().run;
+    if (r.status !== 'running' || current !== handle) return;
+    const changed = p.stage !== r.stage;
+    useViewer.getState().set({
+      run: { ...r, stage: p.stage, done: p.done, total: p.total, design: p.design, designs: p.designs, stageStartedMs: changed ? Date.now() : r.stageStartedMs },
+    });
+  });
+  current = handle;
+  const docAtStart = doc;
+  handle.promise.then(
+    (out) => {
+      if (current !== handle) return;
+      current = null;
+      heavy.designs = { runs: out.designs, comparison: out.comparison, baselineName: out.baselineName };
+      heavy.pair = null;
+      const base = out.designs.find((d) => d.name === out.baselineName) ?? out.designs[0]!;
+      heavy.results = base.results;
+      heavy.patches = base.patches;
+      const st = useViewer.getState();
+      const n = base.results.times.length;
+      const option = out.designs.find((d) => d.name !== out.baselineName)?.name ?? '';
+      st.set({
+        resultsVersion: st.resultsVersion + 1,
+        designsVersion: st.designsVersion + 1,
+        resultsStale: st.doc !== docAtStart,
+        viewMode: 'results',
+        activeDesign: base.name,
+        compareOption: option,
+        compareReference: out.baselineName,
+        pairVersion: 0,
+        timeIndex: Math.min(Math.max(0, st.timeIndex), n - 1),
+        picked: null,
+        selectedDevice: null,
+        run: { ...st.run, status: 'done', design: out.designs.length, elapsedS: (Date.now() - st.run.startedMs) / 1000, reused: 'none', traceWorkers: 0 },
+      });
+      if (option) void comparePair(option, out.baselineName);
+    },
+    (e: unknown) => {
+      if (current !== handle) return;
+      current = null;
+      const st = useViewer.getState();
+      const aborted = e instanceof Error && (e.name === 'AbortError' || /cancel/i.test(e.message));
+      st.set({ run: { ...st.run, status: aborted ? 'cancelled' : 'failed', message: aborted ? 'Cancelled.' : errorText(e) } });
+      if (!aborted) notify('error', `The designs could not be run: ${errorText(e)}`);
+    },
+  );
+}
+
+/** Shows one design's results (after "run all designs") and draws its devices. */
+export function showDesign(name: string): void {
+  const s = useViewer.getState();
+  const run = heavy.designs?.runs.find((d) => d.name === name);
+  if (run) {
+    heavy.results = run.results;
+    heavy.patches = run.patches;
+    s.set({ activeDesign: name, resultsVersion: s.resultsVersion + 1, picked: null, selectedDevice: null, zoneExtra: s.zoneExtra === 'mrtChange' ? 'none' : s.zoneExtra });
+  } else s.set({ activeDesign: name, selectedDevice: null });
+}
+
+/**
+ * Compares `option` against `reference` and shows the difference map: the zone tiles sit on the
+ * reference's sensors (the comparison is per reference sensor), the option's devices are drawn.
+ */
+export async function comparePair(option: string, reference: string): Promise<void> {
+  const s = useViewer.getState();
+  const ref = heavy.designs?.runs.find((d) => d.name === reference);
+  if (!ref || !heavy.designs?.runs.some((d) => d.name === option)) {
+    notify('error', 'Run all designs first.');
+    return;
+  }
+  s.set({ compareOption: option, compareReference: reference });
+  if (option === reference) {
+    notify('info', 'Pick two different designs to see a difference.');
+    return;
+  }
+  try {
+    const pair = await client.compareDesignPair(option, reference);
+    const st = useViewer.getState();
+    if (st.compareOption !== option || st.compareReference !== reference) return;
+    heavy.pair = pair;
+    heavy.results = ref.results;
+    heavy.patches = ref.patches;
+    st.set({ pairVersion: st.pairVersion + 1, resultsVersion: st.resultsVersion + 1, activeDesign: reference, zoneExtra: 'mrtChange', viewMode: 'results', picked: null });
+  } catch (e) {
+    notify('error', errorText(e));
+  }
 }
 
 export function cancelRun(): void {

@@ -5,6 +5,8 @@
  */
 import type { ModelView, PatchView, SunPath } from '../compute/auditApi.ts';
 import type { Results } from '../../audit/results.ts';
+import type { Comparison } from '../../audit/options.ts';
+import type { DesignOutcome } from '../compute/auditApi.ts';
 
 export interface HeavyData {
   /** The model file's bytes (for the audit, Save and autosave). */
@@ -15,6 +17,10 @@ export interface HeavyData {
   sunPath: SunPath | null;
   /** The hourly weather file the project refers to (weather.source "file"). */
   weatherFile: { name: string; bytes: Uint8Array } | null;
+  /** The last run of every design, and each option against the baseline. */
+  designs: { runs: DesignOutcome[]; comparison: Comparison; baselineName: string } | null;
+  /** The comparison of the picked pair (store: compareOption against compareReference). */
+  pair: Comparison | null;
 }
 
-export const heavy: HeavyData = { modelBytes: null, model: null, results: null, patches: null, sunPath: null, weatherFile: null };
+export const heavy: HeavyData = { modelBytes: null, model: null, results: null, patches: null, sunPath: null, weatherFile: null, designs: null, pair: null };

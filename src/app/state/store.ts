@@ -10,7 +10,7 @@ import type { UnitSystem } from '../colour/units.ts';
 import type { UtciCategoryId } from '../../physics/utci.ts';
 import type { RangeMode } from '../ui/ranges.ts';
 
-export type Tool = 'look' | 'pickSurface' | 'drawZone' | 'editZone';
+export type Tool = 'look' | 'pickSurface' | 'drawZone' | 'editZone' | 'placeDevice';
 export type ViewMode = 'model' | 'materials' | 'results';
 export type RunStatus = 'idle' | 'running' | 'done' | 'failed' | 'cancelled';
 
@@ -30,7 +30,17 @@ export interface RunState {
   reused: 'none' | 'geometry' | 'model and geometry';
   /** Trace workers of the finished run (0 = traced inside the audit worker). */
   traceWorkers: number;
+  /** What runs: the project as it stands, or every design (baseline and options). */
+  kind?: 'single' | 'designs';
+  /** With kind 'designs': the design being audited (0-based) and how many there are. */
+  design?: number;
+  designs?: number;
 }
+
+/** Zone colours beyond the per-design layers: a difference between two designs, or glare hours. */
+export type ZoneExtra = 'none' | 'mrtChange' | 'glareHours';
+/** The difference map: one step (the time slider's) or the mean over the daylight steps. */
+export type DiffMode = 'step' | 'daylightMean';
 
 export type Picked = { kind: 'sensor'; zone: number; sensor: number } | { kind: 'patch'; patch: number } | null;
 
@@ -76,6 +86,24 @@ export interface ViewerState {
   showSolstices: boolean;
   /** With the 'editZone' tool: the zone whose corners are edited, and the corner picked (−1: none yet). */
   editCorner: { zone: number; corner: number } | null;
+  /** Zone colours from the design or glare views (replaces `sensorLayer` while not 'none'). */
+  zoneExtra: ZoneExtra;
+  /** Bumped when every design has been run (heavy.designs). */
+  designsVersion: number;
+  /** The design whose results are shown and whose devices are drawn and edited ('' = the project as run). */
+  activeDesign: string;
+  /** The difference map: option − reference. */
+  compareOption: string;
+  compareReference: string;
+  /** Bumped when heavy.pair holds the comparison of compareOption against compareReference. */
+  pairVersion: number;
+  diffMode: DiffMode;
+  /** Selected device: index into the active design's own devices. */
+  selectedDevice: number | null;
+  /** With the 'placeDevice' tool: the type and main sizes of the device to place [m]. */
+  placeDevice: { type: import('../../geometry/devices.ts').DeviceType; sizes: Record<string, number> } | null;
+  /** Reflection paths at the shown step, and viewpoint markers. */
+  showPaths: boolean;
   set: (patch: Partial<ViewerState>) => void;
   setDoc: (doc: ProjectDoc, opts?: { keepResults?: boolean }) => void;
 }
@@ -112,6 +140,16 @@ export const useViewer = create<ViewerState>()((set) => ({
   showSunPath: false,
   showSolstices: true,
   editCorner: null,
+  zoneExtra: 'none',
+  designsVersion: 0,
+  activeDesign: '',
+  compareOption: '',
+  compareReference: '',
+  pairVersion: 0,
+  diffMode: 'step',
+  selectedDevice: null,
+  placeDevice: null,
+  showPaths: true,
   set: (patch) => set(patch),
   setDoc: (doc, opts) => set((s) => ({ doc, resultsStale: opts?.keepResults ? s.resultsStale : s.resultsVersion > 0 })),
 }));

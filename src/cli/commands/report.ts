@@ -15,7 +15,8 @@ import { summarizeResults } from '../../audit/summary.ts';
 import type { RunRecord } from '../../audit/pipeline.ts';
 import { prepareModel } from '../../audit/stages/model.ts';
 import { InputError } from '../../physics/errors.ts';
-import { buildReportHtml } from '../../report/html.ts';
+import { buildReportHtml, type DesignOptionInput } from '../../report/html.ts';
+import { safeName } from './compare.ts';
 import { PLAN_METRICS, type PlanMetricId } from '../../report/zoneData.ts';
 import { resultsGlb, pickStep, SURFACE_METRICS, type SurfaceMetricId } from '../../report/gltfResults.ts';
 import type { ScaleId } from '../../report/palette.ts';
@@ -39,7 +40,7 @@ export const reportCommand: Command = {
     metric: { type: 'string', value: 'surfaceTempC|incidentShortwaveWm2|longwaveEmissionWm2', help: 'surface result for --gltf (default surfaceTempC)' },
     time: { type: 'string', value: '<iso>', help: 'step for --gltf, e.g. 2026-07-15T15:00:00+02:00 (default: the step with the highest area-weighted mean)' },
   },
-  details: 'Reads results.json, summary.json (recomputed when missing) and run.json from the folder.\nThe report carries the cautions: it screens designs, it does not certify them.',
+  details: 'Reads results.json, summary.json (recomputed when missing) and run.json from the folder; a\n`sunfacet compare` folder (compare.json) gives the baseline plus a design-options page.\nThe report carries the cautions: it screens designs, it does not certify them.',
   async run({ positional, options }, io) {
     const dir = positional[0];
     if (!dir) {
@@ -54,8 +55,9 @@ export const reportCommand: Command = {
     if (!(plan in PLAN_METRICS)) throw new InputError({ place: '--plan', problem: 'unknown plan metric', value: plan, expected: Object.keys(PLAN_METRICS).join(', ') });
     const scale = String(options.scale ?? 'magma') as ScaleId;
     if (!SCALES.includes(scale)) throw new InputError({ place: '--scale', problem: 'unknown colour scale', value: scale, expected: SCALES.join(', ') });
-    const { results, summary, run } = await readResultsFolder(path.resolve(io.cwd, dir), dir);
-    if (out) await writeReport(results, summary, run, path.resolve(io.cwd, out), Boolean(options.pdf), plan as PlanMetricId, scale, io);
+    const designs = await readCompareFolder(path.resolve(io.cwd, dir), dir);
+    const { results, summary, run } = designs ? designs.baseline : await readResultsFolder(path.resolve(io.cwd, dir), dir);
+    if (out) await writeReport(results, summary, run, path.resolve(io.cwd, out), Boolean(options.pdf), plan as PlanMetricId, scale, io, designs?.options ?? [], designs?.baselineName);
     if (gltf) {
       if (options.project === undefined) throw new InputError({ place: '--project', problem: '--gltf needs the project file', expected: 'the project .json the results were computed from (its model gives the patch triangles)' });
       const metric = String(options.metric ?? 'surfaceTempC');
@@ -96,8 +98,25 @@ async function writeFiles(files: { abs: string; data: string | Uint8Array }[]): 
   for (const f of files) await writeOutputsAtomically(path.dirname(f.abs), [{ name: path.basename(f.abs), chunks: [f.data] }]);
 }
 
-async function writeReport(results: Results, summary: Summary, run: RunRecord | null, outAbs: string, pdf: boolean, plan: PlanMetricId, scale: ScaleId, io: CliIo): Promise<void> {
-  const html = await buildReportHtml({ results, summary, run, planMetric: plan, scale });
+/**
+ * A `sunfacet compare` output folder (compare.json + one results folder per design): the baseline's
+ * results and the options' for the report's options page; null for a plain audit folder.
+ */
+async function readCompareFolder(abs: string, shown: string): Promise<{ baseline: Awaited<ReturnType<typeof readResultsFolder>>; options: DesignOptionInput[]; baselineName: string } | null> {
+  const cmp = await readJson<{ sunfacetCompare?: number; baseline: string; options: { name: string }[] }>(path.join(abs, 'compare.json'), path.join(shown, 'compare.json'), false);
+  if (!cmp) return null;
+  const sub = (name: string) => readResultsFolder(path.join(abs, safeName(name)), path.join(shown, safeName(name)));
+  const baseline = await sub(cmp.baseline);
+  const options: DesignOptionInput[] = [];
+  for (const o of cmp.options) {
+    const r = await sub(o.name);
+    options.push({ name: o.name, results: r.results, summary: r.summary });
+  }
+  return { baseline, options, baselineName: cmp.baseline };
+}
+
+async function writeReport(results: Results, summary: Summary, run: RunRecord | null, outAbs: string, pdf: boolean, plan: PlanMetricId, scale: ScaleId, io: CliIo, options: DesignOptionInput[] = [], baselineName?: string): Promise<void> {
+  const html = await buildReportHtml({ results, summary, run, planMetric: plan, scale, options, ...(baselineName ? { baselineName } : {}) });
   const files: { abs: string; data: string | Uint8Array }[] = [{ abs: outAbs, data: html }];
   if (pdf) {
     io.err('[sunfacet] printing the report to PDF (headless Chromium)\n');
