@@ -7,6 +7,7 @@ import { SurfacesPanel } from './ui/SurfacesPanel.tsx';
 import { ZonesPanel, finishDraftZone } from './ui/ZonesPanel.tsx';
 import { WeatherPanel } from './ui/WeatherPanel.tsx';
 import { RunPanel } from './ui/RunPanel.tsx';
+import { DesignsPanel } from './ui/DesignsPanel.tsx';
 import { ResultsPanel } from './ui/ResultsPanel.tsx';
 import { TimeBar } from './ui/TimeBar.tsx';
 import { AboutBox } from './ui/AboutBox.tsx';
@@ -45,7 +46,9 @@ function ToolHint() {
         ? 'Drawing a zone: click corners on a floor or roof · Enter finishes · Esc cancels'
         : tool === 'editZone'
           ? 'Editing a zone: click a corner handle, then click where it goes · Esc ends'
-          : 'Click a surface to choose its material · Esc ends'}
+          : tool === 'placeDevice'
+            ? 'Placing a device: click the ground, a floor or a wall · Esc cancels'
+            : 'Click a surface to choose its material · Esc ends'}
     </div>
   );
 }
@@ -58,7 +61,7 @@ export function App() {
       if (e.key === 'Escape') {
         if (s.aboutOpen) return; // the dialog closes itself
         if (s.tool === 'editZone' && s.editCorner && s.editCorner.corner >= 0) s.set({ editCorner: { ...s.editCorner, corner: -1 } });
-        else if (s.tool !== 'look') s.set({ tool: 'look', draftZone: [], editCorner: null });
+        else if (s.tool !== 'look') s.set({ tool: 'look', draftZone: [], editCorner: null, placeDevice: null });
         else if (s.run.status === 'running') cancelRun();
         else if (s.picked) s.set({ picked: null });
         return;
@@ -79,6 +82,7 @@ export function App() {
         <ZonesPanel />
         <WeatherPanel />
         <RunPanel />
+        <DesignsPanel />
       </aside>
       <main
         className={`view${dragging ? ' dragging' : ''}`}

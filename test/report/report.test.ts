@@ -119,7 +119,7 @@ describe('report HTML', () => {
     const altSummary = summarizeResults(alt, { stepHours: 1 });
     const withOpt = await buildReportHtml({ results, summary, run: record, options: [{ name: 'with canopy', results: alt, summary: altSummary }] });
     expect(withOpt).toContain('Design options');
-    expect(withOpt).toContain('with canopy minus base');
+    expect(withOpt).toContain('with canopy − base');
     expect((withOpt.match(/<figure class="diff">/g) ?? []).length).toBe(results.zones.length);
   });
 

@@ -7,6 +7,8 @@ import { heavy } from '../state/heavy.ts';
 import { colourValues, sensorCount, sensorLayerRange, sensorValues, stepRange } from '../colour/layers.ts';
 import { effectiveRange, sensorRangeKey } from '../ui/ranges.ts';
 import { addDraftPoint } from './pick.ts';
+import { colourDifferences } from '../colour/diverging.ts';
+import { zoneExtraColours } from './zoneExtra.ts';
 
 /** Lift of the tiles above the zone floor [m], so they never fight with the floor. */
 const TILE_LIFT_M = 0.05;
@@ -14,7 +16,7 @@ const TILE_LIFT_M = 0.05;
 export function SensorTiles() {
   const resultsVersion = useViewer((s) => s.resultsVersion);
   const layer = useViewer((s) => s.sensorLayer);
-  const show = useViewer((s) => s.viewMode === 'results' && s.sensorLayer !== 'none' && s.resultsVersion > 0);
+  const show = useViewer((s) => s.viewMode === 'results' && (s.sensorLayer !== 'none' || s.zoneExtra !== 'none') && s.resultsVersion > 0);
   const timeIndex = useViewer((s) => s.timeIndex);
   const scale = useViewer((s) => s.sensorScale);
   const category = useViewer((s) => s.category);
@@ -22,6 +24,9 @@ export function SensorTiles() {
   const fixedRanges = useViewer((s) => s.fixedRanges);
   const doc = useViewer((s) => s.doc);
   const picked = useViewer((s) => s.picked);
+  const extra = useViewer((s) => s.zoneExtra);
+  const pairVersion = useViewer((s) => s.pairVersion);
+  const diffMode = useViewer((s) => s.diffMode);
   const invalidate = useThree((s) => s.invalidate);
   const mesh = useRef<InstancedMesh>(null);
 
@@ -58,10 +63,15 @@ export function SensorTiles() {
   useEffect(() => {
     const r = heavy.results;
     const im = mesh.current;
-    if (!r || !im || !layout || layer === 'none') return;
-    const values = sensorValues(r, layer, timeIndex, category);
-    const range = effectiveRange(rangeMode, fixedRanges[sensorRangeKey(layer, category)], sensorLayerRange(r, layer, category), rangeMode === 'step' ? stepRange(values) : null);
-    const rgb = colourValues(values, range, scale);
+    if (!r || !im || !layout || (layer === 'none' && extra === 'none')) return;
+    let rgb: Float32Array;
+    const ex = extra !== 'none' ? zoneExtraColours(r, extra, timeIndex, diffMode, scale) : null;
+    if (ex) rgb = ex.kind === 'difference' ? colourDifferences(ex.values, ex.halfRangeK) : colourValues(ex.values, ex.range, scale);
+    else if (layer !== 'none') {
+      const values = sensorValues(r, layer, timeIndex, category);
+      const range = effectiveRange(rangeMode, fixedRanges[sensorRangeKey(layer, category)], sensorLayerRange(r, layer, category), rangeMode === 'step' ? stepRange(values) : null);
+      rgb = colourValues(values, range, scale);
+    } else return;
     const c = new Color();
     for (let i = 0; i < layout.n; i++) {
       c.setRGB(rgb[i * 3]!, rgb[i * 3 + 1]!, rgb[i * 3 + 2]!, 'srgb');
@@ -71,7 +81,7 @@ export function SensorTiles() {
     }
     if (im.instanceColor) im.instanceColor.needsUpdate = true;
     invalidate();
-  }, [layout, layer, timeIndex, scale, category, rangeMode, fixedRanges, picked, invalidate, show]);
+  }, [layout, layer, timeIndex, scale, category, rangeMode, fixedRanges, picked, invalidate, show, extra, pairVersion, diffMode]);
 
   if (!layout || layout.n === 0 || !show) return null;
 

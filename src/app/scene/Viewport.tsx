@@ -16,6 +16,8 @@ import { NorthArrow } from './NorthArrow.tsx';
 import { PersonFigure } from './PersonFigure.tsx';
 import { EngineFrame } from './EngineFrame.tsx';
 import { SunPathDome } from './SunPathDome.tsx';
+import { DeviceModels } from './DeviceModels.tsx';
+import { ReflectionPaths } from './ReflectionPaths.tsx';
 
 /** Frames the camera on the model whenever a new model is shown. */
 function CameraFit({ controls }: { controls: React.RefObject<OrbitControlsImpl | null> }) {
@@ -102,6 +104,8 @@ export function Viewport() {
         <SensorTiles />
         <ZoneOutlines />
         <SunPathDome />
+        <DeviceModels />
+        <ReflectionPaths />
       </EngineFrame>
     </Canvas>
   );

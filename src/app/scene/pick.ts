@@ -6,15 +6,17 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useViewer } from '../state/store.ts';
 import { engineFromDisplay } from '../compute/frames.ts';
 import { moveZoneCorner } from '../state/projectDoc.ts';
+import { placeDeviceAt } from './placeDevice.ts';
 
 /**
- * Takes a click for the zone tools: adds a corner to the zone being drawn, or moves the picked
+ * Takes a click for the zone tools and the device placing tool (placeDevice.ts): adds a corner to the zone being drawn, or moves the picked
  * corner of the zone being edited to the clicked point (engine coordinates). True when used.
  * @param floorZM height to use instead of the hit's (the ground plane is drawn a little low)
  */
 export function addDraftPoint(e: ThreeEvent<MouseEvent>, floorZM?: number): boolean {
   const s = useViewer.getState();
   if (!s.doc) return false;
+  if (s.tool === 'placeDevice') return placeDeviceAt(e, floorZM);
   if (s.tool === 'editZone') {
     e.stopPropagation();
     const c = s.editCorner;

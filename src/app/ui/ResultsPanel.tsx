@@ -9,6 +9,8 @@ import { Legend } from './Legend.tsx';
 import { effectiveRange, sensorRangeKey } from './ranges.ts';
 import { NumberField } from './NumberField.tsx';
 import { Inspector } from './Inspector.tsx';
+import { DesignCompare, GlareLegend } from './DesignCompare.tsx';
+import type { ZoneExtra } from '../state/store.ts';
 
 export function ResultsPanel() {
   const resultsVersion = useViewer((s) => s.resultsVersion);
@@ -22,6 +24,8 @@ export function ResultsPanel() {
   const fixedRanges = useViewer((s) => s.fixedRanges);
   const units = useViewer((s) => s.units);
   const set = useViewer((s) => s.set);
+  const zoneExtra = useViewer((s) => s.zoneExtra);
+  const pairVersion = useViewer((s) => s.pairVersion);
   // Only the step's own range needs a re-render per step.
   const stepIndex = useViewer((s) => (s.rangeMode === 'step' ? s.timeIndex : -1));
   const r = heavy.results;
@@ -50,6 +54,7 @@ export function ResultsPanel() {
     set({ rangeMode: 'fixed', fixedRanges: { ...fixedRanges, [key]: { ...cur, [which]: v } } });
   };
   return (
+    <>
     <section className="panel" aria-labelledby="h-results">
       <h2 id="h-results">Results</h2>
       <div className="row">
@@ -68,14 +73,24 @@ export function ResultsPanel() {
       </div>
       <div className="field">
         <label htmlFor="sensor-layer">Zones show</label>
-        <select id="sensor-layer" value={sensorLayer} onChange={(e) => set({ sensorLayer: e.target.value as SensorLayerId | 'none', viewMode: 'results' })}>
+        <select
+          id="sensor-layer"
+          value={zoneExtra !== 'none' ? zoneExtra : sensorLayer}
+          onChange={(e) => {
+            const v = e.target.value;
+            if (v === 'mrtChange' || v === 'glareHours') set({ zoneExtra: v as ZoneExtra, viewMode: 'results' });
+            else set({ sensorLayer: v as SensorLayerId | 'none', zoneExtra: 'none', viewMode: 'results' });
+          }}
+        >
           <option value="none">nothing</option>
           {SENSOR_LAYERS.map((l) => (
             <option key={l.id} value={l.id}>{l.label}</option>
           ))}
+          {r.glare && <option value="glareHours">Glare hours (after-image or worse)</option>}
+          {pairVersion > 0 && <option value="mrtChange">MRT difference between designs</option>}
         </select>
       </div>
-      {sensorLayer === 'categoryHours' && (
+      {sensorLayer === 'categoryHours' && zoneExtra === 'none' && (
         <div className="field">
           <label htmlFor="utci-category">UTCI category</label>
           <select id="utci-category" value={category} onChange={(e) => set({ category: e.target.value as UtciCategoryId })}>
@@ -115,7 +130,7 @@ export function ResultsPanel() {
           )}
         </>
       )}
-      {viewMode === 'results' && zInfo && (
+      {viewMode === 'results' && zInfo && zoneExtra === 'none' && (
         <>
           <Legend title={zInfo.id === 'categoryHours' ? `Zones: hours of ${catLabel}` : `Zones: ${zInfo.label}`} quantity={zInfo.quantity} range={zRange} scale={sensorScale} units={units} rangeMode={zMode} testId="legend-zones" />
           {rangeMode === 'fixed' && (
@@ -126,7 +141,10 @@ export function ResultsPanel() {
           )}
         </>
       )}
+      {viewMode === 'results' && <GlareLegend />}
       <Inspector />
     </section>
+    <DesignCompare />
+    </>
   );
 }
