@@ -4,8 +4,12 @@
  * or on given work (`--obj scene.obj --rays file.rays --query any-hit|closest-hit`).
  * One JSON line per measurement on stdout (medians over --reps); logs on stderr.
  *
+ * Tracers: `sunfacet` is the JavaScript kernel, `sunfacet-wasm` the WebAssembly SIMD kernel
+ * (src/trace/wasm), both through the same batch API (occludedBatch / closestBatch).
+ *
  * Flags: --sizes 20k,200k,1m   --reps N (default 5)   --quick (20k scene, 100k rays, 3 reps)
- *        --rays-count N (rays per set, default 1M)   --tracers sunfacet,three-mesh-bvh,three-raycaster
+ *        --rays-count N (rays per set, default 1M)
+ *        --tracers sunfacet,sunfacet-wasm,three-mesh-bvh,three-raycaster
  *        --workers 1,2   --export DIR (write scene-<N>.obj, shadow-<N>.rays, hemi-<N>.rays)
  */
 import { Worker } from 'node:worker_threads';
@@ -16,10 +20,11 @@ import { MeshBVH, SAH } from 'three-mesh-bvh';
 import { buildBvh } from '../../src/trace/bvh/build.ts';
 import type { BvhData } from '../../src/trace/bvh/build.ts';
 import { occludedBatch, closestBatch } from '../../src/trace/bvh/batch.ts';
+import { setRayKernel } from '../../src/trace/wasm/loader.ts';
 import { generateCity, generateRays } from './sceneGen.ts';
 
 type Query = 'any-hit' | 'closest-hit';
-type Tracer = 'sunfacet' | 'three-mesh-bvh' | 'three-raycaster';
+type Tracer = 'sunfacet' | 'sunfacet-wasm' | 'three-mesh-bvh' | 'three-raycaster';
 interface Line {
   bench: 'trace'; triangles: number; rays: string; query: Query; tracer: Tracer; workers: number;
   mraysPerS: number; hitFraction: number; buildMs: number; [extra: string]: unknown;
@@ -42,7 +47,7 @@ interface Opts {
 }
 
 function parseOpts(args: string[]): Opts {
-  const o: Opts = { sizes: [20_000, 200_000, 1_000_000], reps: 5, raysCount: 1_000_000, tracers: ['sunfacet', 'three-mesh-bvh', 'three-raycaster'], workers: [1, 2] };
+  const o: Opts = { sizes: [20_000, 200_000, 1_000_000], reps: 5, raysCount: 1_000_000, tracers: ['sunfacet', 'sunfacet-wasm', 'three-mesh-bvh', 'three-raycaster'], workers: [1, 2] };
   for (let i = 0; i < args.length; i++) {
     const a = args[i] as string;
     const val = (): string => { const v = args[++i]; if (v === undefined) throw new Error(`${a} needs a value`); return v; };
@@ -110,7 +115,7 @@ function timeSunfacet(bvh: BvhData, rays: Float32Array, query: Query, reps: numb
 }
 
 /** Starts `count` workers via the tsx eval bootstrap (TOOLCHAIN §2), each with its ray range. */
-async function startWorkers(count: number, bvh: BvhData, rays: Float32Array, query: Query): Promise<Worker[]> {
+async function startWorkers(count: number, bvh: BvhData, rays: Float32Array, query: Query, kernel: 'js' | 'wasm'): Promise<Worker[]> {
   const tsxApi = import.meta.resolve('tsx/esm/api');
   const entry = new URL('./traceWorker.ts', import.meta.url).href;
   const code = `import(${JSON.stringify(tsxApi)}).then(m => { m.register(); return import(${JSON.stringify(entry)}); })`;
@@ -122,7 +127,7 @@ async function startWorkers(count: number, bvh: BvhData, rays: Float32Array, que
     const next = (): Promise<unknown> => new Promise((resolve, reject) => { w.once('error', reject); w.once('message', resolve); });
     await next(); // {loaded}: the worker module is running
     const ready = next();
-    w.postMessage({ setup: { bvh, rays, start, end, query } });
+    w.postMessage({ setup: { bvh, rays, start, end, query, kernel } });
     await ready;
     ws.push(w);
   }
@@ -188,8 +193,9 @@ interface Work { triangles: number; raysName: string; rays: Float32Array; querie
 
 async function traceAll(o: Opts, positions: Float32Array, indices: Uint32Array, works: Work[]): Promise<void> {
   const triangles = indices.length / 3;
-  // --- sunfacet ---
-  if (o.tracers.includes('sunfacet')) {
+  // --- sunfacet (JavaScript kernel) and sunfacet-wasm (WebAssembly SIMD kernel) ---
+  const kernels = (['sunfacet', 'sunfacet-wasm'] as const).filter((k) => o.tracers.includes(k));
+  if (kernels.length > 0) {
     const buildTimes: number[] = [];
     let bvh: BvhData | null = null;
     for (let r = 0; r < Math.min(o.reps, 3); r++) {
@@ -204,16 +210,21 @@ async function traceAll(o: Opts, positions: Float32Array, indices: Uint32Array, 
     for (const w of works) {
       const shared = o.workers.some((k) => k > 1) ? toShared(w.rays) : w.rays;
       for (const q of w.queries) {
-        for (const nw of o.workers) {
+        for (const tracer of kernels) for (const nw of o.workers) {
+          const kernel = tracer === 'sunfacet' ? 'js' : 'wasm';
           let res: { mrays: number; hitFraction: number };
-          if (nw === 1) res = timeSunfacet(b, w.rays, q, o.reps);
-          else {
-            const ws = await startWorkers(nw, b, shared, q);
+          if (nw === 1) {
+            setRayKernel(kernel);
+            if (kernel === 'wasm') timeSunfacet(b, w.rays, q, 1); // warm-up: compile, copy the scene in
+            res = timeSunfacet(b, w.rays, q, o.reps);
+            setRayKernel('auto');
+          } else {
+            const ws = await startWorkers(nw, b, shared, q, kernel);
             await timeWorkers(ws, w.rays.length / 6, 1); // warm-up
             res = await timeWorkers(ws, w.rays.length / 6, o.reps);
             await Promise.all(ws.map((x) => x.terminate()));
           }
-          emit({ bench: 'trace', triangles, rays: w.raysName, query: q, tracer: 'sunfacet', workers: nw, mraysPerS: +res.mrays.toFixed(4), hitFraction: +res.hitFraction.toFixed(4), buildMs: +buildMs.toFixed(1), build: 'binned SAH' });
+          emit({ bench: 'trace', triangles, rays: w.raysName, query: q, tracer, workers: nw, mraysPerS: +res.mrays.toFixed(4), hitFraction: +res.hitFraction.toFixed(4), buildMs: +buildMs.toFixed(1), build: 'binned SAH' });
         }
       }
     }

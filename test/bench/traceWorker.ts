@@ -5,8 +5,9 @@
 import { parentPort } from 'node:worker_threads';
 import type { BvhData } from '../../src/trace/bvh/build.ts';
 import { occludedBatch, closestBatch } from '../../src/trace/bvh/batch.ts';
+import { setRayKernel } from '../../src/trace/wasm/loader.ts';
 
-interface Setup { bvh: BvhData; rays: Float32Array; start: number; end: number; query: 'any-hit' | 'closest-hit' }
+interface Setup { bvh: BvhData; rays: Float32Array; start: number; end: number; query: 'any-hit' | 'closest-hit'; kernel?: 'js' | 'wasm' }
 
 const port = parentPort;
 if (port === null) throw new Error('traceWorker must run in a worker thread');
@@ -15,6 +16,7 @@ let outOcc = new Uint8Array(0), outT = new Float32Array(0), outTri = new Int32Ar
 port.on('message', (msg: { setup?: Setup; go?: boolean; quit?: boolean }) => {
   if (msg.setup !== undefined) {
     setup = msg.setup;
+    setRayKernel(setup.kernel ?? 'auto');
     const n = setup.rays.length / 6;
     outOcc = new Uint8Array(n); outT = new Float32Array(n); outTri = new Int32Array(n);
     port.postMessage({ ready: true });

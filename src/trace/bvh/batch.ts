@@ -8,10 +8,14 @@
  * arithmetic). So ranges of at least `SORT_MIN_RAYS` rays are traced in a coherent order: sorted by
  * direction octant, then by the Morton code of the origin within the scene box (2-pass 16-bit
  * radix sort on module-scope scratch that grows as needed). Results are identical either way.
+ *
+ * Kernel: the WebAssembly SIMD kernel (../wasm/loader.ts) when it is loaded and enabled on this
+ * thread (`setRayKernel`, default 'auto'), else the JavaScript kernel; their answers are identical.
  */
 import type { BvhData } from './build.ts';
 import { InputError } from '../../physics/errors.ts';
 import { isOccluded, isOccludedMasked, closestT, lastSlot } from './query.ts';
+import { wasmKernelFor } from '../wasm/loader.ts';
 
 /** Ranges with fewer rays are traced in the given order. */
 export const SORT_MIN_RAYS = 2048;
@@ -93,6 +97,7 @@ export function occludedBatch(
 ): number {
   const s0 = start ?? 0, e0 = end ?? Math.floor(rays.length / 6);
   checkRange(rays, out.length, s0, e0, 'occludedBatch');
+  const wasm = wasmKernelFor(bvh); if (wasm !== null) return wasm.occluded(bvh, rays, tMin, tMax, out, s0, e0, null);
   let hits = 0;
   const sorted = e0 - s0 >= SORT_MIN_RAYS;
   const ord = sorted ? coherentOrder(bvh, rays, s0, e0) : perm;
@@ -113,6 +118,7 @@ export function occludedBatchMasked(
 ): number {
   const s0 = start ?? 0, e0 = end ?? Math.floor(rays.length / 6);
   checkRange(rays, out.length, s0, e0, 'occludedBatchMasked');
+  const wasm = wasmKernelFor(bvh); if (wasm !== null) return wasm.occluded(bvh, rays, tMin, tMax, out, s0, e0, skip);
   let hits = 0;
   const sorted = e0 - s0 >= SORT_MIN_RAYS;
   const ord = sorted ? coherentOrder(bvh, rays, s0, e0) : perm;
@@ -137,6 +143,7 @@ export function closestBatch(
 ): number {
   const s0 = start ?? 0, e0 = end ?? Math.floor(rays.length / 6);
   checkRange(rays, Math.min(outT.length, outTri.length), s0, e0, 'closestBatch');
+  const wasm = wasmKernelFor(bvh); if (wasm !== null) return wasm.closest(bvh, rays, tMin, tMax, outT, outTri, s0, e0);
   const ti = bvh.triIndex;
   let hits = 0;
   const sorted = e0 - s0 >= SORT_MIN_RAYS;
