@@ -84,6 +84,7 @@ describe('design options and glare (built app in headless Chromium)', () => {
     await page.waitForTimeout(300);
     await shot('22-difference-daylight-mean');
     expect((await legend.textContent()) ?? '').toContain('mean over daylight hours');
+    expect((await page.getByTestId('compare-note').textContent()) ?? '').toContain('devices drawn are those of “tree row”');
     expect(problems).toEqual([]);
   }, 240_000);
 
@@ -121,6 +122,8 @@ describe('design options and glare (built app in headless Chromium)', () => {
     await page.locator('#sensor-layer').selectOption('glareHours');
     const legend = page.getByTestId('legend-glare');
     await legend.waitFor({ state: 'visible', timeout: 5_000 });
+    // choosing the glare layer turns the paths on
+    expect(await page.getByLabel('Reflections reaching sensors at the time shown').isChecked()).toBe(true);
     expect((await page.locator('.glare .caution').textContent()) ?? '').toMatch(/licensed professional/);
     // Non-zero glare hours on the café terrace (read from the results the page shows).
     const zones = (await page.getByTestId('glare-zones').textContent()) ?? '';
@@ -130,11 +133,11 @@ describe('design options and glare (built app in headless Chromium)', () => {
     const summary = (await page.getByTestId('paths-summary').textContent()) ?? '';
     expect(summary).toMatch(/At 19:00: [1-9]\d* path/);
     const paths = decodePng(await shot('27-glare-paths-1900'));
-    await page.getByLabel('Reflected sun paths at the time shown').uncheck();
+    await page.getByLabel('Reflections reaching sensors at the time shown').uncheck();
     await page.waitForTimeout(300);
     const hidden = decodePng(await shot('27b-glare-1900-no-paths'));
     expect(meanAbsDiff(paths, hidden)).toBeGreaterThan(0.05);
-    await page.getByLabel('Reflected sun paths at the time shown').check();
+    await page.getByLabel('Reflections reaching sensors at the time shown').check();
     expect(meanAbsDiff(noPaths, paths)).toBeGreaterThan(0.05);
     await page.screenshot({ path: join(SHOTS, '28-page-glare-1900.png') });
     await page.getByRole('button', { name: /About/ }).click();

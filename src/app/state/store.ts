@@ -149,7 +149,7 @@ export const useViewer = create<ViewerState>()((set) => ({
   diffMode: 'step',
   selectedDevice: null,
   placeDevice: null,
-  showPaths: true,
+  showPaths: false,
   set: (patch) => set(patch),
   setDoc: (doc, opts) => set((s) => ({ doc, resultsStale: opts?.keepResults ? s.resultsStale : s.resultsVersion > 0 })),
 }));

@@ -139,7 +139,7 @@ export function GlareLegend() {
           {zoneGlareHours(r, ex.values).map((z) => <li key={z.name}>{z.name}: up to {z.maxH} h at a sensor, {z.sensorsWith} of {z.sensors} sensors with any</li>)}
         </ul>
       )}
-      <label className="small"><input type="checkbox" checked={showPaths} onChange={(e) => set({ showPaths: e.target.checked })} /> Reflected sun paths at the time shown</label>
+      <label className="small"><input type="checkbox" checked={showPaths} onChange={(e) => set({ showPaths: e.target.checked })} /> Reflections reaching sensors at the time shown</label>
       <p className="small" data-testid="paths-summary">
         {p.toViewpoint.length === 0 ? `No reflected sun reaches a sensor or viewpoint at ${time}.` : `At ${time}: ${p.toViewpoint.length} path(s) to ${p.sensorsReached} sensor(s) and ${p.viewpointsReached} viewpoint(s).`}
       </p>

@@ -89,6 +89,9 @@ export function DesignsPanel() {
   const selected = useViewer((s) => s.selectedDevice);
   const set = useViewer((s) => s.set);
   const setDoc = useViewer((s) => s.setDoc);
+  const comparing = useViewer((s) => s.zoneExtra === 'mrtChange' && s.pairVersion > 0);
+  const compareOption = useViewer((s) => s.compareOption);
+  const compareReference = useViewer((s) => s.compareReference);
   if (!doc) return null;
   const names = designNames(doc);
   const base = baselineName(doc);
@@ -112,6 +115,11 @@ export function DesignsPanel() {
         ))}
       </ul>
       {notes && <p className="small muted">{notes}</p>}
+      {comparing && (
+        <p className="small" data-testid="compare-note">
+          Difference map: <strong>{compareOption}</strong> − <strong>{compareReference}</strong>. Tiles sit on the sensors of “{compareReference}”; the devices drawn are those of “{compareOption}”.
+        </p>
+      )}
       <div className="row">
         <button type="button" className="primary" onClick={startDesignsRun} disabled={run.status === 'running' || !ok} data-testid="run-designs">
           Audit all {names.length} designs

@@ -78,7 +78,7 @@ export function ResultsPanel() {
           value={zoneExtra !== 'none' ? zoneExtra : sensorLayer}
           onChange={(e) => {
             const v = e.target.value;
-            if (v === 'mrtChange' || v === 'glareHours') set({ zoneExtra: v as ZoneExtra, viewMode: 'results' });
+            if (v === 'mrtChange' || v === 'glareHours') set({ zoneExtra: v as ZoneExtra, viewMode: 'results', ...(v === 'glareHours' ? { showPaths: true } : {}) });
             else set({ sensorLayer: v as SensorLayerId | 'none', zoneExtra: 'none', viewMode: 'results' });
           }}
         >
