@@ -107,6 +107,14 @@ export interface ConductionState {
   readonly p: Float64Array;
   readonly s: Float64Array;
   readonly tempOldC: Float64Array;
+  /**
+   * The time-step-only half of the elimination, kept for the last step length (the matrix of a
+   * backward-Euler step depends on Δt but not on the temperatures): 1/a_j per node and the
+   * surface coefficient A, valid while `eliminatedDtS` equals the step length.
+   */
+  readonly inverseDiagonal: Float64Array;
+  eliminatedDtS: number;
+  eliminatedSurfaceA: number;
   /** Surface relation A·T_0' = B + q_in of the prepared step. */
   surfaceA: number;
   surfaceB: number;
@@ -250,6 +258,9 @@ export function createConductionState(
     p: new Float64Array(nodeCount),
     s: new Float64Array(nodeCount),
     tempOldC: new Float64Array(nodeCount),
+    inverseDiagonal: new Float64Array(nodeCount),
+    eliminatedDtS: NaN,
+    eliminatedSurfaceA: 0,
     surfaceA: 0,
     surfaceB: 0,
     preparedDtS: 0,
@@ -306,26 +317,32 @@ export function prepareConductionStep(state: ConductionState, dtS: number, backT
   const T = state.tempC;
   const p = state.p;
   const s = state.s;
+  const ia = state.inverseDiagonal;
   const inv = 1 / dtS;
   state.tempOldC.set(T);
+  if (state.eliminatedDtS !== dtS) {
+    // The matrix half of the Thomas elimination (s_j, 1/a_j, A) depends on Δt only.
+    if (state.backKind === BACK_FIXED) {
+      s[n] = 0;
+      ia[n] = 0;
+    } else {
+      const a = C[n]! * inv + G[n - 1]! + state.backConductanceWm2K; // 0 when adiabatic
+      ia[n] = 1 / a;
+      s[n] = G[n - 1]! / a;
+    }
+    for (let j = n - 1; j >= 1; j--) {
+      const a = C[j]! * inv + G[j - 1]! + G[j]! - G[j]! * s[j + 1]!;
+      ia[j] = 1 / a;
+      s[j] = G[j - 1]! / a;
+    }
+    state.eliminatedSurfaceA = C[0]! * inv + G[0]! - G[0]! * s[1]!;
+    state.eliminatedDtS = dtS;
+  }
   // back node
-  if (state.backKind === BACK_FIXED) {
-    p[n] = backTempC;
-    s[n] = 0;
-  } else {
-    const gb = state.backConductanceWm2K; // 0 when adiabatic
-    const a = C[n]! * inv + G[n - 1]! + gb;
-    const r = C[n]! * inv * T[n]! + gb * backTempC;
-    p[n] = r / a;
-    s[n] = G[n - 1]! / a;
-  }
-  for (let j = n - 1; j >= 1; j--) {
-    const a = C[j]! * inv + G[j - 1]! + G[j]! - G[j]! * s[j + 1]!;
-    const r = C[j]! * inv * T[j]! + G[j]! * p[j + 1]!;
-    p[j] = r / a;
-    s[j] = G[j - 1]! / a;
-  }
-  state.surfaceA = C[0]! * inv + G[0]! - G[0]! * s[1]!;
+  if (state.backKind === BACK_FIXED) p[n] = backTempC;
+  else p[n] = (C[n]! * inv * T[n]! + state.backConductanceWm2K * backTempC) * ia[n]!;
+  for (let j = n - 1; j >= 1; j--) p[j] = (C[j]! * inv * T[j]! + G[j]! * p[j + 1]!) * ia[j]!;
+  state.surfaceA = state.eliminatedSurfaceA;
   state.surfaceB = C[0]! * inv * T[0]! + G[0]! * p[1]!;
   state.preparedDtS = dtS;
   state.preparedBackTempC = backTempC;

@@ -117,6 +117,18 @@ export interface SurfaceState {
 
 interface MutableSurfaceState extends Omit<SurfaceState, 'surfaceTempC'> {
   surfaceTempC: number;
+  // What `resolveSurfaceStep` needs of the last step taken by `stepSurface`: the profile and
+  // surface temperature at its start (the profile is kept only when it was sub-stepped; with one
+  // sub-step the conduction state's own `tempOldC` holds it), its sub-step count, convective
+  // coefficient, back temperature, length and inputs of air temperature and wind.
+  readonly stepStartTempC: Float64Array;
+  stepStartSurfaceTempC: number;
+  lastSubsteps: number;
+  lastConvectionWm2K: number;
+  lastBackTempC: number;
+  lastDtS: number;
+  lastAirTempC: number;
+  lastWindMs: number;
 }
 
 function toConductionBack(back: MaterialBack): ConductionGridOptions['back'] {
@@ -181,6 +193,14 @@ export function createSurfaceState(props: SurfaceThermalProperties, opts: Surfac
     backTempC: bm.tempC,
     maxSubsteps: opts.maxSubsteps ?? 120,
     surfaceTempC: init,
+    stepStartTempC: new Float64Array(conduction.nodeCount),
+    stepStartSurfaceTempC: init,
+    lastSubsteps: 0,
+    lastConvectionWm2K: 0,
+    lastBackTempC: 0,
+    lastDtS: 0,
+    lastAirTempC: NaN,
+    lastWindMs: NaN,
   };
   return state;
 }
@@ -275,6 +295,57 @@ export function stepSurface(state: SurfaceState, inputs: SurfaceStepInputs, dtS:
   const t0K = st.surfaceTempC + KELVIN_AT_0C;
   const hr = 4 * eps * STEFAN_BOLTZMANN_W_M2K4 * t0K * t0K * t0K;
   const nSub = conductionSubsteps(cs, dtS, h + hr, st.maxSubsteps);
+  st.stepStartSurfaceTempC = st.surfaceTempC;
+  if (nSub > 1) st.stepStartTempC.set(cs.tempC);
+  st.lastSubsteps = nSub;
+  st.lastConvectionWm2K = h;
+  st.lastBackTempC = backTempC;
+  st.lastDtS = dtS;
+  st.lastAirTempC = inputs.airTempC;
+  st.lastWindMs = inputs.windMs;
+  return advance(st, inputs, h, backTempC, nSub, dtS, false, out);
+}
+
+/**
+ * Takes the step last taken by `stepSurface` on this state again, from the same start, with other
+ * absorbed shortwave and incoming longwave: the result is the one `stepSurface` would give from
+ * that start (same sub-steps, same Newton root to 1e-9 K). For the iteration of a step's
+ * longwave exchange between surfaces. With one sub-step the eliminated conduction system of the
+ * first solve is reused (only the scalar balance and the back-substitution are redone); if air
+ * temperature, wind or step length differ from the first solve, the start is restored and the
+ * step taken afresh. Allocates nothing.
+ *
+ * @param state Surface state last advanced by `stepSurface` (modified)
+ * @param inputs Absorbed shortwave [W/m²], incoming longwave [W/m²], air temperature [°C], local wind [m/s]
+ * @param dtS Time step [s], > 0
+ * @param out Result object to fill
+ * @returns `out`
+ *
+ * @example
+ * stepSurface(state, inputs, 3600, out); inputs.longwaveInWm2 += 5; resolveSurfaceStep(state, inputs, 3600, out)
+ */
+export function resolveSurfaceStep(state: SurfaceState, inputs: SurfaceStepInputs, dtS: number, out: SurfaceStepResult): SurfaceStepResult {
+  const st = state as MutableSurfaceState;
+  const cs = st.conduction;
+  if (st.lastSubsteps === 0 || dtS !== st.lastDtS || inputs.airTempC !== st.lastAirTempC || inputs.windMs !== st.lastWindMs) {
+    if (st.lastSubsteps > 1) cs.tempC.set(st.stepStartTempC);
+    else if (st.lastSubsteps === 1) cs.tempC.set(cs.tempOldC);
+    if (st.lastSubsteps > 0) st.surfaceTempC = st.stepStartSurfaceTempC;
+    return stepSurface(state, inputs, dtS, out);
+  }
+  checkInputs(inputs);
+  const nSub = st.lastSubsteps;
+  if (nSub > 1) {
+    cs.tempC.set(st.stepStartTempC);
+    st.surfaceTempC = st.stepStartSurfaceTempC;
+  }
+  return advance(st, inputs, st.lastConvectionWm2K, st.lastBackTempC, nSub, dtS, nSub === 1, out);
+}
+
+/** The sub-step loop of `stepSurface`; `prepared`: one sub-step whose conduction system is already eliminated. */
+function advance(st: MutableSurfaceState, inputs: SurfaceStepInputs, h: number, backTempC: number, nSub: number, dtS: number, prepared: boolean, out: SurfaceStepResult): SurfaceStepResult {
+  const cs = st.conduction;
+  const eps = st.emissivity;
   const dtSub = dtS / nSub;
   const absLw = eps * inputs.longwaveInWm2;
   const gain = inputs.absorbedShortwaveWm2 + absLw;
@@ -284,9 +355,10 @@ export function stepSurface(state: SurfaceState, inputs: SurfaceStepInputs, dtS:
   let sumBack = 0;
   let sumStored = 0;
   let iters = 0;
-  let t = st.surfaceTempC;
+  // With a prepared system the last solution is the closer guess; the root is the same.
+  let t = prepared ? st.surfaceTempC : st.stepStartSurfaceTempC;
   for (let k = 0; k < nSub; k++) {
-    prepareConductionStep(cs, dtSub, backTempC);
+    if (!prepared) prepareConductionStep(cs, dtSub, backTempC);
     t = solveSurfaceTempC(gain, eps, h, inputs.airTempC, cs.surfaceA, cs.surfaceB, t);
     iters += _iters;
     finishConductionStep(cs, t);
