@@ -224,7 +224,7 @@ function optionsPage(input: ReportInput, metricId: PlanMetricId, stepHours: numb
         continue;
       }
       const span = Math.max(1e-6, ...diff.filter(Number.isFinite).map(Math.abs));
-      maps.push(`<figure class="diff">${planViewSvg({ zone, values: diff, label: `${o.name} − ${baseName}: ${metric.label}`, unit: metric.unit, decimals: metric.decimals, scale: 'cividis', range: { min: -span, max: span }, widthPx: 320 })}<figcaption>${esc(o.name)} · ${esc(zone.name)}</figcaption></figure>`);
+      maps.push(`<figure class="diff">${planViewSvg({ zone, values: diff, label: `${o.name} − ${baseName}: ${metric.label}`, unit: metric.unit, decimals: metric.decimals, scale: 'cool-warm', endLabels: metric.id === 'skyView' ? ['less sky', 'more sky'] : ['cooler', 'hotter'], range: { min: -span, max: span }, widthPx: 320 })}<figcaption>${esc(o.name)} · ${esc(zone.name)}</figcaption></figure>`);
     }
   }
   return `
@@ -263,7 +263,7 @@ function methodPage(results: Results, run: Record<string, unknown>, record: RunR
 <li>Wind flow around the buildings is not simulated: the wind at each height comes from the 10 m wind by a profile law, the same everywhere on the site.</li>
 <li>Evaporative cooling (wet surfaces, irrigated lawns, trees' transpiration, misting, water features) is not modelled.</li>
 <li>${results.glare === undefined ? 'Reflection between surfaces is diffuse; specular reflection from glass and metal is not traced in this run, so glare and focused reflections are not assessed.' : 'Reflection between surfaces: the matte part is diffuse; the mirror-like part of glass, metal and water is traced from the solar disc to the sensors and viewpoints (glare, concentration) and enters their MRT as a beam. Reflected sun does not heat the surfaces it lands on.'}</li>
-<li>The ground under and around the model is a ground apron of 1 m cells with its own heat balance; beyond it an open far ground at its own temperature.</li>
+<li>The ground under and around the model is a ground apron with its own shade and heat balance (1 m² cells within 6 m of a zone, 4 m² cells farther out); beyond it an open far ground at its own temperature.</li>
 <li>Materials are presets with typical properties; real products vary. People are standard (shortwave absorptance 0.7, emissivity 0.97), not a particular person, posture or clothing beyond the UTCI's own assumptions.</li>
 <li>Time stamps: ${esc(results.timeConvention)}.</li>
 <li>The weather is what the project gives: ${esc(str(run.weatherSource))}.</li>

@@ -7,6 +7,7 @@
 import type { ZoneResult, SurfaceResult } from '../audit/results.ts';
 import { niceTicks, niceStep, tickDecimals } from '../app/colour/legend.ts';
 import { scaleCss, type ScaleId } from './palette.ts';
+import { sampleCoolWarm } from '../app/colour/diverging.ts';
 import { esc, fixed } from './format.ts';
 import { sensorSpacingM } from './zoneData.ts';
 
@@ -18,7 +19,9 @@ export interface PlanViewInput {
   label: string;
   unit: string;
   decimals: number;
-  scale: ScaleId;
+  scale: ScaleId | 'cool-warm';
+  /** Labels under the two ends of a diverging legend (e.g. "cooler", "hotter"). */
+  endLabels?: [string, string];
   /** Colour range; default: the values' finite min and max. */
   range?: { min: number; max: number };
   /** Start the colour range at 0 (counts of hours), not at the smallest value. */
@@ -31,6 +34,14 @@ export interface PlanViewInput {
 }
 
 const MISSING = '#9a9a9a';
+
+/** CSS colour at t ∈ [0, 1] of a sequential scale, or of the diverging cool-warm map (Moreland 2009). */
+function colourAt(scale: PlanViewInput['scale'], t: number): string {
+  if (scale !== 'cool-warm') return scaleCss(scale, t);
+  const c = [0, 0, 0];
+  sampleCoolWarm(t, c);
+  return `rgb(${c.map((v) => Math.round(v * 255)).join(',')})`;
+}
 
 /** The plan view SVG of one zone. */
 export function planViewSvg(p: PlanViewInput): string {
@@ -83,7 +94,7 @@ export function planViewSvg(p: PlanViewInput): string {
   const cell = spacing * kk;
   sensors.forEach((s, i) => {
     const v = p.values[i] ?? NaN;
-    const fill = Number.isFinite(v) ? scaleCss(p.scale, frac(v)) : MISSING;
+    const fill = Number.isFinite(v) ? colourAt(p.scale, frac(v)) : MISSING;
     parts.push(`<rect class="sensor" data-sensor="${i}" data-value="${Number.isFinite(v) ? v : ''}" x="${(px(s.position[0]) - cell / 2).toFixed(1)}" y="${(py(s.position[1]) - cell / 2).toFixed(1)}" width="${cell.toFixed(1)}" height="${cell.toFixed(1)}" fill="${fill}" stroke="#fff" stroke-width="0.5"/>`);
   });
   if (p.markSensor !== undefined && sensors[p.markSensor]) {
@@ -99,7 +110,7 @@ export function planViewSvg(p: PlanViewInput): string {
   // Legend bar.
   const lgTop = H + 16, lgW = plotW - 20, lgX = 20;
   const stops: string[] = [];
-  for (let i = 0; i <= 16; i++) stops.push(`<stop offset="${(i / 16).toFixed(3)}" stop-color="${scaleCss(p.scale, i / 16)}"/>`);
+  for (let i = 0; i <= 16; i++) stops.push(`<stop offset="${(i / 16).toFixed(3)}" stop-color="${colourAt(p.scale, i / 16)}"/>`);
   const gid = `g${Math.abs(hashString(p.zone.name + p.label + p.scale))}`;
   parts.push(`<defs><linearGradient id="${gid}">${stops.join('')}</linearGradient></defs>`);
   parts.push(`<text x="${lgX}" y="${lgTop}" font-size="10">${esc(p.label)}${p.unit ? ` [${esc(p.unit)}]` : ''}</text>`);
@@ -110,7 +121,10 @@ export function planViewSvg(p: PlanViewInput): string {
     const x = lgX + frac(t) * lgW;
     parts.push(`<line x1="${x.toFixed(1)}" y1="${lgTop + 15}" x2="${x.toFixed(1)}" y2="${lgTop + 19}" stroke="#333"/><text x="${x.toFixed(1)}" y="${lgTop + 29}" font-size="9" text-anchor="middle">${esc(fixed(t, dec))}</text>`);
   }
-  const total = lgTop + 34;
+  if (p.endLabels) {
+    parts.push(`<text x="${lgX}" y="${lgTop + 40}" font-size="9">◀ ${esc(p.endLabels[0])}</text><text x="${lgX + lgW}" y="${lgTop + 40}" font-size="9" text-anchor="end">${esc(p.endLabels[1])} ▶</text>`);
+  }
+  const total = lgTop + (p.endLabels ? 44 : 34);
   return `<svg xmlns="http://www.w3.org/2000/svg" class="plan" width="${W}" height="${total.toFixed(0)}" viewBox="0 0 ${W} ${total.toFixed(0)}" font-family="Helvetica, Arial, sans-serif" role="img" aria-label="plan of ${esc(p.zone.name)}">${parts.join('')}</svg>`;
 }
 
