@@ -2,6 +2,17 @@
 import { describe, it, expect } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { createAuditApi, makeReadRelative } from '../../src/app/compute/auditApi.ts';
+import { sensorSeries, UTCI_CATEGORY_IDS, type ResultsView } from '../../src/app/compute/resultColumns.ts';
+import type { Results } from '../../src/audit/results.ts';
+
+/** Every typed array's buffer in a results view (what the worker transfers). */
+function viewBuffers(v: ResultsView): ArrayBufferLike[] {
+  const out: ArrayBufferLike[] = [];
+  for (const z of v.zones) for (const a of [z.positions, z.skyViewFactor, z.mrtC, z.utciC, z.category, z.sunlit, z.glare]) if (a) out.push(a.buffer);
+  for (const a of [v.surfaces.areaM2, v.surfaces.shortwave, v.surfaces.surfaceTemp, v.surfaces.longwave]) out.push(a.buffer);
+  if (v.paths) for (const a of [v.paths.step, v.paths.zone, v.paths.receiver, v.paths.point]) out.push(a.buffer);
+  return out;
+}
 
 const text = readFileSync(new URL('../../public/demo/project.json', import.meta.url), 'utf8');
 const glb = new Uint8Array(readFileSync(new URL('../../public/demo/demo-terrace.glb', import.meta.url)));
@@ -65,7 +76,8 @@ describe('re-running reuses the geometry pass', () => {
     expect(fresh.reused).toBe('none');
     expect(second.results).toEqual(fresh.results);
     // …and differs from the first run (warmer air).
-    expect(second.results.zones[0]!.sensors[0]!.utciC).not.toEqual(first.results.zones[0]!.sensors[0]!.utciC);
+    const utci0 = (r: ResultsView) => Array.from(sensorSeries(r.zones[0]!, 'utciC', 0, r.steps));
+    expect(utci0(second.results)).not.toEqual(utci0(first.results));
     console.log(`geometry reuse (weather change): first ${first.timingsMs.total} ms, re-run ${second.timingsMs.total} ms`);
 
     const darker = { ...warmer, materials: { ...doc.materials, 'render-light': { preset: 'concrete-light', reflectanceVisible: 0.2, reflectanceNir: 0.25 } } };
@@ -73,8 +85,24 @@ describe('re-running reuses the geometry pass', () => {
     expect(third.reused).toBe('geometry');
     const fresh3 = await createAuditApi().runAudit(5, jobOf(darker));
     expect(third.results).toEqual(fresh3.results);
-    expect(third.results.surfaces.map((s) => s.surfaceTempC[14])).not.toEqual(second.results.surfaces.map((s) => s.surfaceTempC[14]));
+    const at14 = (r: ResultsView) => Array.from({ length: r.surfaces.count }, (_, i) => r.surfaces.surfaceTemp[i * r.steps + 14]);
+    expect(at14(third.results)).not.toEqual(at14(second.results));
     console.log(`geometry reuse (material change): fresh ${fresh3.timingsMs.total} ms, re-run ${third.timingsMs.total} ms`);
+
+    // The page gets typed-array columns, each on its own buffer (so all can be transferred);
+    // the full Results stay in the worker and come back as the CLI's results.json text.
+    const bufs = viewBuffers(third.results);
+    expect(new Set(bufs).size).toBe(bufs.length);
+    expect(bufs.every((b) => b instanceof ArrayBuffer)).toBe(true);
+    const full = JSON.parse(new TextDecoder().decode(await api.exportResults())) as Results;
+    expect(full.sunfacet).toBe(1);
+    expect(full.times).toEqual(third.results.times);
+    const z0 = full.zones[0]!, v0 = third.results.zones[0]!;
+    expect(v0.sensorCount).toBe(z0.sensors.length);
+    // Float32 columns: equal to the full values within float32 rounding (relative 1e-7, common practice)
+    z0.sensors.forEach((s, i) => s.mrtC.forEach((m, t) => expect(Math.abs(v0.mrtC[i * third.results.steps + t]! - m)).toBeLessThanOrEqual(Math.abs(m) * 1.2e-7 + 1e-12)));
+    z0.sensors.forEach((s, i) => s.category.forEach((c, t) => expect(UTCI_CATEGORY_IDS[v0.category[i * third.results.steps + t]!]).toBe(c)));
+    expect(third.results.surfaces.ids).toEqual(full.surfaces.map((s) => s.id));
 
     // Moving north changes the sun directions in the model: nothing is reused.
     const turned = { ...darker, site: { ...(doc.site as object), northDeg: 10 } };

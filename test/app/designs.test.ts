@@ -7,6 +7,7 @@ import { compareDesigns, type DesignRun } from '../../src/audit/options.ts';
 import type { Results, SensorResult } from '../../src/audit/results.ts';
 import { makeDevice, moveDevice, setDeviceNumber, deviceNumbers, designDevices, setOwnDevices } from '../../src/app/state/designDoc.ts';
 import { buildDeviceView } from '../../src/app/compute/deviceView.ts';
+import { toResultsView } from '../../src/app/compute/resultColumns.ts';
 import type { ProjectDoc } from '../../src/app/state/projectDoc.ts';
 
 const to255 = (v: number) => Math.round(v * 255);
@@ -74,9 +75,9 @@ describe('difference between two designs', () => {
   const pair = compareDesigns([run('ref', ref), run('opt', opt)], 'ref');
 
   it('per step and daylight mean, on the reference sensors, NaN where unmatched', () => {
-    const step0 = differenceValues(pair, ref, { kind: 'step', step: 0 });
+    const step0 = differenceValues(pair, toResultsView(ref).view, { kind: 'step', step: 0 });
     expect(Array.from(step0)).toEqual([-6, NaN, 1]);
-    const mean = differenceValues(pair, ref, { kind: 'daylightMean' });
+    const mean = differenceValues(pair, toResultsView(ref).view, { kind: 'daylightMean' });
     // daylight steps 0 and 1 only (sun above the horizon): (−6 − 4)/2 = −5; (1 + 1)/2 = 1
     expect(mean[0]).toBeCloseTo(-5, 6);
     expect(Number.isNaN(mean[1]!)).toBe(true);
@@ -94,13 +95,13 @@ describe('difference between two designs', () => {
 });
 
 describe('glare hours and reflection paths', () => {
-  const r = results([sensor(0, [1, 1, 1], ['after-image', 'dim', 'retinal-risk']), sensor(5, [1, 1, 1], ['none', 'none', 'none'])], {
+  const r = toResultsView(results([sensor(0, [1, 1, 1], ['after-image', 'dim', 'retinal-risk']), sensor(5, [1, 1, 1], ['none', 'none', 'none'])], {
     viewpoints: [{ name: 'eye', position: [9, 9, 1.2], viewDirectionDeg: 0, fieldDeg: 30, reflectedBeamWm2: [], glare: [], reflectingPatches: [] }],
     reflectionPaths: {
       step: [0, 1, 1, 1, 2], patch: [0, 0, 1, 1, 0], zone: [0, 0, -1, 0, 0], receiver: [0, 0, 0, 7, 1],
       point: [[1, 1, 1], [2, 2, 2], [3, 3, 3], [4, 4, 4], [5, 5, 5]], irradianceWm2: [1, 1, 1, 1, 1], discFraction: [1, 1, 1, 1, 1], offAxisDeg: [0, 0, 0, 0, 0],
     },
-  } as Partial<Results>);
+  } as Partial<Results>)).view;
 
   it('counts hours at after-image or worse', () => {
     expect(Array.from(glareHoursValues(r))).toEqual([2, 0]);

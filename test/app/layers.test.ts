@@ -5,6 +5,7 @@ import {
 } from '../../src/app/colour/layers.ts';
 import { sampleScale } from '../../src/app/colour/scales.ts';
 import { matchPatchesToResults } from '../../src/app/compute/patchMatch.ts';
+import { toResultsView } from '../../src/app/compute/resultColumns.ts';
 
 /** A synthetic two-step, two-patch, three-sensor Results object (test fixture, invented numbers). */
 function fixture(): Results {
@@ -28,9 +29,12 @@ function fixture(): Results {
   };
 }
 
+/** The fixture as the page receives it: typed-array columns built by the worker. */
+const view = () => toResultsView(fixture()).view;
+
 describe('result layers', () => {
   it('picks one value per patch at a step', () => {
-    const r = fixture();
+    const r = view();
     expect(Array.from(surfaceValues(r, 'shortwave', 1))).toEqual([600, NaN]);
     expect(Array.from(surfaceValues(r, 'surfaceTemp', 0))).toEqual([22, 21]);
     expect(Array.from(surfaceValues(r, 'longwave', 1))).toEqual([445, 430]);
@@ -38,14 +42,14 @@ describe('result layers', () => {
   });
 
   it('ranges over all steps so colours compare across time', () => {
-    const r = fixture();
+    const r = view();
     expect(surfaceLayerRange(r, 'shortwave')).toEqual({ min: 50, max: 600 });
     expect(sensorLayerRange(r, 'mrt', 'strong-heat')).toEqual({ min: 28, max: 50 });
     expect(sensorLayerRange(r, 'categoryHours', 'strong-heat')).toEqual({ min: 0, max: 1 });
   });
 
   it('flattens sensors over zones and counts hours in a category', () => {
-    const r = fixture();
+    const r = view();
     expect(sensorCount(r)).toBe(3);
     expect(stepHoursOf(r)).toBe(0.5);
     expect(Array.from(sensorValues(r, 'utci', 1, 'strong-heat'))).toEqual([33, 39, 34]);

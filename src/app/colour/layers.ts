@@ -1,9 +1,10 @@
 /**
  * Result layers: which column of the Results a colour view shows, and the pure mapping from a
- * Results object (DESIGN §4) to one value per surface patch or per sensor at a time step. The
+ * Results view (the columns of src/app/compute/resultColumns.ts) to one value per surface patch or per sensor at a time step. The
  * React tree only reads what these functions return.
  */
 import type { Results } from '../../audit/results.ts';
+import { UTCI_CATEGORY_IDS, type ResultsView } from '../compute/resultColumns.ts';
 import type { UtciCategoryId } from '../../physics/utci.ts';
 import type { Quantity } from './units.ts';
 import { sampleScale, valueFraction, type ScaleId } from './scales.ts';
@@ -33,8 +34,8 @@ export const SENSOR_LAYERS: readonly LayerInfo<SensorLayerId>[] = [
   { id: 'categoryHours', label: 'Hours in a UTCI category', quantity: 'hours', perStep: false },
 ];
 
-function surfaceColumn(layer: SurfaceLayerId, s: Results['surfaces'][number]): readonly number[] {
-  return layer === 'shortwave' ? s.incidentShortwaveWm2 : layer === 'surfaceTemp' ? s.surfaceTempC : s.longwaveEmissionWm2;
+function surfaceColumn(layer: SurfaceLayerId, s: ResultsView['surfaces']): Float32Array {
+  return layer === 'shortwave' ? s.shortwave : layer === 'surfaceTemp' ? s.surfaceTemp : s.longwave;
 }
 
 /** Hours each step stands for, from the spacing of the first two time stamps (1 if one step). */
@@ -47,20 +48,29 @@ export function stepHoursOf(results: Pick<Results, 'times'>): number {
 }
 
 /** Number of sensors over all zones. */
-export function sensorCount(results: Pick<Results, 'zones'>): number {
+export function sensorCount(results: { zones: readonly { sensorCount: number }[] }): number {
   let n = 0;
-  for (const z of results.zones) n += z.sensors.length;
+  for (const z of results.zones) n += z.sensorCount;
   return n;
 }
 
 /** One value per surface patch (in `results.surfaces` order) at step `timeIndex` [SI units]. */
-export function surfaceValues(results: Results, layer: SurfaceLayerId, timeIndex: number, target?: Float32Array): Float32Array {
-  const out = target ?? new Float32Array(results.surfaces.length);
-  results.surfaces.forEach((s, i) => {
-    const v = surfaceColumn(layer, s)[timeIndex];
-    out[i] = v === undefined ? NaN : v;
-  });
+export function surfaceValues(results: ResultsView, layer: SurfaceLayerId, timeIndex: number, target?: Float32Array): Float32Array {
+  const n = results.surfaces.count;
+  const out = target ?? new Float32Array(n);
+  const col = surfaceColumn(layer, results.surfaces);
+  const steps = results.steps;
+  const inside = timeIndex >= 0 && timeIndex < steps;
+  for (let i = 0; i < n; i++) out[i] = inside ? col[i * steps + timeIndex]! : NaN;
   return out;
+}
+
+/** Hours over the period that one sensor spends in UTCI category `code` (a code of UTCI_CATEGORY_IDS). */
+function hoursInCode(codes: Uint8Array, sensor: number, steps: number, code: number, stepH: number): number {
+  let n = 0;
+  const o = sensor * steps;
+  for (let t = 0; t < steps; t++) if (codes[o + t] === code) n++;
+  return n * stepH;
 }
 
 /**
@@ -68,7 +78,7 @@ export function surfaceValues(results: Results, layer: SurfaceLayerId, timeIndex
  * 'categoryHours' the hours over the whole period whose UTCI category is `categoryId`.
  */
 export function sensorValues(
-  results: Results,
+  results: ResultsView,
   layer: SensorLayerId,
   timeIndex: number,
   categoryId: UtciCategoryId,
@@ -76,55 +86,36 @@ export function sensorValues(
 ): Float32Array {
   const out = target ?? new Float32Array(sensorCount(results));
   const stepH = stepHoursOf(results);
+  const steps = results.steps;
+  const code = UTCI_CATEGORY_IDS.indexOf(categoryId);
+  const inside = timeIndex >= 0 && timeIndex < steps;
   let k = 0;
   for (const z of results.zones) {
-    for (const s of z.sensors) {
-      if (layer === 'categoryHours') {
-        let n = 0;
-        for (const c of s.category) if (c === categoryId) n++;
-        out[k++] = n * stepH;
-      } else {
-        const v = (layer === 'mrt' ? s.mrtC : s.utciC)[timeIndex];
-        out[k++] = v === undefined ? NaN : v;
-      }
+    const col = layer === 'mrt' ? z.mrtC : z.utciC;
+    for (let i = 0; i < z.sensorCount; i++) {
+      if (layer === 'categoryHours') out[k++] = hoursInCode(z.category, i, steps, code, stepH);
+      else out[k++] = inside ? col[i * steps + timeIndex]! : NaN;
     }
   }
   return out;
 }
 
-/** Min/max over arrays of numbers, skipping non-finite values (plain loops: a year is tens of millions). */
-function rangeOfColumns(columns: Iterable<readonly number[]>): ValueRange | null {
-  let min = Infinity;
-  let max = -Infinity;
-  for (const col of columns) {
-    for (let i = 0; i < col.length; i++) {
-      const v = col[i]!;
-      if (v < min) min = v;
-      if (v > max) max = v;
-    }
-  }
-  // NaN fails both comparisons; ±Infinity is not a value the audit writes.
-  if (!(min <= max) || !Number.isFinite(min) || !Number.isFinite(max)) return null;
-  if (min === max) return { min: min - 0.5, max: max + 0.5 };
-  return { min, max };
-}
-
 const rangeCache = new WeakMap<object, Map<string, ValueRange | null>>();
 
-function cached(results: Results, key: string, compute: () => ValueRange | null): ValueRange | null {
+function cached(results: ResultsView, key: string, compute: () => ValueRange | null): ValueRange | null {
   let m = rangeCache.get(results);
   if (!m) rangeCache.set(results, (m = new Map()));
   if (!m.has(key)) m.set(key, compute());
   return m.get(key)!;
 }
 
-/** Automatic range of a surface layer over every step and patch (so colours compare across time); cached per Results. */
-export function surfaceLayerRange(results: Results, layer: SurfaceLayerId): ValueRange | null {
-  return cached(results, `s:${layer}`, () => rangeOfColumns(results.surfaces.map((s) => surfaceColumn(layer, s))));
+/** Automatic range of a surface layer over every step and patch (so colours compare across time); computed with the columns. */
+export function surfaceLayerRange(results: ResultsView, layer: SurfaceLayerId): ValueRange | null {
+  return results.ranges[layer];
 }
 
-/** Automatic range of a sensor layer over every step and sensor (0 to the most hours of any sensor, for hours); cached per Results. */
-export function sensorLayerRange(results: Results, layer: SensorLayerId, categoryId: UtciCategoryId): ValueRange | null {
+/** Automatic range of a sensor layer over every step and sensor (0 to the most hours of any sensor, for hours). */
+export function sensorLayerRange(results: ResultsView, layer: SensorLayerId, categoryId: UtciCategoryId): ValueRange | null {
   if (layer === 'categoryHours') {
     if (sensorCount(results) === 0) return null;
     // 0 to the most hours any sensor spends in the category (over a year, the period's length
@@ -136,7 +127,7 @@ export function sensorLayerRange(results: Results, layer: SensorLayerId, categor
       return { min: 0, max: Math.max(stepHoursOf(results), max) };
     });
   }
-  return cached(results, `z:${layer}`, () => rangeOfColumns(results.zones.flatMap((z) => z.sensors.map((s) => (layer === 'mrt' ? s.mrtC : s.utciC)))));
+  return results.ranges[layer];
 }
 
 /** Range of the values at one step (the "this step's range" legend option); null when all are missing. */

@@ -27,6 +27,7 @@ import { createBrowserWorkerPool } from '../../trace/pool/browserWorkers.ts';
 import type { Results } from '../../audit/results.ts';
 import { buildSteps } from '../../audit/stages/steps.ts';
 import { matchPatchesToResults } from './patchMatch.ts';
+import { toResultsView, type ResultsView } from './resultColumns.ts';
 import { compareDesigns, designProjects, runDesigns, type Comparison, type DesignRun } from '../../audit/options.ts';
 
 /** A model ready to draw: the Scene arrays in the model frame (x, y horizontal, z up) [m]. */
@@ -58,7 +59,8 @@ export interface PatchView {
 export type ReuseKind = 'none' | 'geometry' | 'model and geometry';
 
 export interface AuditOutcome {
-  results: Results;
+  /** The results as typed-array columns (the full Results stay in the worker: `exportResults`). */
+  results: ResultsView;
   patches: PatchView | null;
   /** What was taken over from the previous run. */
   reused: ReuseKind;
@@ -99,7 +101,7 @@ export interface DesignsProgress extends AuditProgress {
 /** One design's run for the viewer. */
 export interface DesignOutcome {
   name: string;
-  results: Results;
+  results: ResultsView;
   patches: PatchView | null;
   reusedGeometry: boolean;
 }
@@ -121,6 +123,11 @@ export interface AuditApi {
   sunPath(job: AuditJob): Promise<SunPath>;
   runAudit(jobId: number, job: AuditJob, onProgress?: (p: AuditProgress) => void): Promise<AuditOutcome>;
   cancel(jobId: number): void;
+  /**
+   * The full Results of the last run (or of design `design` of the last runDesigns) as the CLI's
+   * results.json text, UTF-8 (serialised here, off the page's main thread).
+   */
+  exportResults(design?: string): Promise<Uint8Array>;
 }
 
 /** Least time between progress messages to the page [ms]. */
@@ -226,6 +233,7 @@ export function createAuditApi(): AuditApi {
   const jobs = new Map<number, AbortController>();
   let cache: CachedRun | null = null;
   let designRuns: DesignRun[] = [];
+  let lastResults: Results | null = null;
   return {
     async runDesigns(jobId, job, onProgress) {
       const ctrl = new AbortController();
@@ -249,6 +257,7 @@ export function createAuditApi(): AuditApi {
         };
         cache = null; // the single-design cache would hold a second BVH
         designRuns = [];
+        lastResults = null;
         const runs = await runDesigns(loaded, { signal: ctrl.signal, onProgress: report });
         ctrl.signal.throwIfAborted();
         designRuns = runs;
@@ -261,7 +270,9 @@ export function createAuditApi(): AuditApi {
           const model = await prepareModel({ ...loaded, project: d.project });
           const patches = patchView(model.patches, r.results);
           if (patches) buffers.push(patches.positions.buffer as ArrayBuffer, patches.patchOfTriangle.buffer as ArrayBuffer, patches.resultIndex.buffer as ArrayBuffer);
-          out.push({ name: r.name, results: r.results, patches, reusedGeometry: r.reusedGeometry });
+          const cols = toResultsView(r.results);
+          buffers.push(...cols.buffers);
+          out.push({ name: r.name, results: cols.view, patches, reusedGeometry: r.reusedGeometry });
         }
         return transfer({ designs: out, comparison, baselineName: loaded.project.baselineName, timingsMs: { total: Math.round(performance.now() - t0) } }, buffers);
       } finally {
@@ -334,16 +345,27 @@ export function createAuditApi(): AuditApi {
           );
           ctrl.signal.throwIfAborted();
           cache = { keys, state };
+          lastResults = results;
+          designRuns = [];
           const patches = patchView(state.model.patches, results);
+          const cols = toResultsView(results);
           const timingsMs = { ...record.timingsMs, total: Math.round(performance.now() - t0) };
-          const out: AuditOutcome = { results, patches, reused: plan.kind, traceWorkers: workers, timingsMs };
-          return patches ? transfer(out, [patches.positions.buffer, patches.patchOfTriangle.buffer, patches.resultIndex.buffer] as ArrayBuffer[]) : out;
+          const out: AuditOutcome = { results: cols.view, patches, reused: plan.kind, traceWorkers: workers, timingsMs };
+          const buffers = [...cols.buffers, ...(patches ? [patches.positions.buffer, patches.patchOfTriangle.buffer, patches.resultIndex.buffer] as ArrayBuffer[] : [])];
+          return transfer(out, buffers);
         } finally {
           await tracer?.close();
         }
       } finally {
         jobs.delete(jobId);
       }
+    },
+
+    async exportResults(design) {
+      const r = design !== undefined ? designRuns.find((d) => d.name === design)?.results : (lastResults ?? designRuns[0]?.results);
+      if (!r) throw new Error(design !== undefined ? `no run of "${design}": run all designs first` : 'no results yet: run the audit first');
+      const bytes = new TextEncoder().encode(JSON.stringify(r));
+      return transfer(bytes, [bytes.buffer as ArrayBuffer]);
     },
 
     cancel(jobId) {

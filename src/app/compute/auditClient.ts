@@ -57,6 +57,11 @@ export class AuditClient {
     return this.cancellable((api, id) => api.runDesigns(id, job, proxy(onProgress)));
   }
 
+  /** The full results.json of the last run (or of one design), serialised in the worker. */
+  exportResults(design?: string): Promise<Uint8Array> {
+    return this.api().exportResults(design);
+  }
+
   compareDesignPair(option: string, reference: string): Promise<Comparison> {
     return this.api().compareDesignPair(option, reference);
   }

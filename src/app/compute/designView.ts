@@ -4,8 +4,8 @@
  * the reflection paths at one step. No three.js, no React.
  */
 import type { Comparison } from '../../audit/options.ts';
-import type { Results } from '../../audit/results.ts';
-import { GLARE_CATEGORIES, GLARE_HOURS_FROM } from '../../audit/stages/glare.ts';
+import { GLARE_HOURS_FROM } from '../../audit/stages/glare.ts';
+import { GLARE_CATEGORY_IDS, type ResultsView } from './resultColumns.ts';
 import { sensorCount, stepHoursOf } from '../colour/layers.ts';
 
 /** Which difference to show: the mean over the period's daylight steps, or one step. */
@@ -18,14 +18,14 @@ export type DifferenceMode = { kind: 'daylightMean' } | { kind: 'step'; step: nu
  * @param pair a comparison whose baseline is the reference design (its zones follow the reference's)
  * @param reference the reference design's results (for the sensor count per zone)
  */
-export function differenceValues(pair: Comparison, reference: Pick<Results, 'zones'>, mode: DifferenceMode, target?: Float32Array): Float32Array {
+export function differenceValues(pair: Comparison, reference: { zones: readonly { name: string; sensorCount: number }[] }, mode: DifferenceMode, target?: Float32Array): Float32Array {
   const out = target ?? new Float32Array(sensorCount(reference));
   out.fill(NaN);
   const option = pair.options[0];
   let k = 0;
   reference.zones.forEach((z, zi) => {
     const ch = option?.zones[zi];
-    for (let s = 0; s < z.sensors.length; s++, k++) {
+    for (let s = 0; s < z.sensorCount; s++, k++) {
       if (!ch || ch.name !== z.name) continue;
       const v = mode.kind === 'daylightMean' ? ch.sensorMeanMrtChangeK[s] : ch.sensorMrtChangeK?.[s]?.[mode.step];
       if (typeof v === 'number') out[k] = v;
@@ -68,28 +68,26 @@ export function designTable(c: Comparison): DesignTableRow[] {
   return rows;
 }
 
-/** Index of a glare category id in GLARE_CATEGORIES (−1 if unknown). */
-function glareRank(id: string): number {
-  return GLARE_CATEGORIES.findIndex((c) => c.id === id);
-}
-
 /**
  * Hours per sensor (zones in order) whose glare category is `from` or worse (default: after-image
  * possible, the results' `glare.glareHoursFrom`). NaN for sensors without glare values.
  */
-export function glareHoursValues(results: Results, target?: Float32Array): Float32Array {
+export function glareHoursValues(results: ResultsView, target?: Float32Array): Float32Array {
   const out = target ?? new Float32Array(sensorCount(results));
-  const from = glareRank(results.glare?.glareHoursFrom ?? GLARE_HOURS_FROM);
+  const from = GLARE_CATEGORY_IDS.indexOf(results.glare?.glareHoursFrom ?? GLARE_HOURS_FROM);
   const stepH = stepHoursOf(results);
+  const steps = results.steps;
   let k = 0;
   for (const z of results.zones) {
-    for (const s of z.sensors) {
-      if (!s.glare) {
+    for (let i = 0; i < z.sensorCount; i++) {
+      const g = z.glare;
+      if (!g) {
         out[k++] = NaN;
         continue;
       }
       let n = 0;
-      for (const c of s.glare) if (glareRank(c) >= from) n++;
+      // codes rank the categories, least severe first; NO_CODE (255) is a missing value
+      for (let t = i * steps, e = t + steps; t < e; t++) if (g[t]! >= from && g[t]! < GLARE_CATEGORY_IDS.length) n++;
       out[k++] = n * stepH;
     }
   }
@@ -111,19 +109,24 @@ export interface PathsAtStep {
  * reflecting patch to the sensor (zones[zone].sensors[receiver]) or viewpoint (zone −1) it reaches.
  * Entries whose receiver is missing are skipped.
  */
-export function pathsAtStep(results: Results, t: number): PathsAtStep {
-  const p = results.reflectionPaths;
+export function pathsAtStep(results: ResultsView, t: number): PathsAtStep {
+  const p = results.paths;
   const seg: number[] = [];
   const vp: number[] = [];
   const sensors = new Set<string>();
   const viewpoints = new Set<number>();
   if (p) {
-    for (let i = 0; i < p.step.length; i++) {
+    for (let i = 0; i < p.count; i++) {
       if (p.step[i] !== t) continue;
-      const zone = p.zone[i]!, rec = p.receiver[i]!, a = p.point[i];
-      const to = zone === -1 ? results.viewpoints?.[rec]?.position : results.zones[zone]?.sensors[rec]?.position;
-      if (!a || !to) continue;
-      seg.push(a[0], a[1], a[2], to[0], to[1], to[2]);
+      const zone = p.zone[i]!, rec = p.receiver[i]!;
+      let to: ArrayLike<number> | undefined;
+      if (zone === -1) to = results.viewpoints[rec]?.position;
+      else {
+        const z = results.zones[zone];
+        if (z && rec >= 0 && rec < z.sensorCount) to = z.positions.subarray(rec * 3, rec * 3 + 3);
+      }
+      if (!to || !Number.isFinite(p.point[i * 3]!)) continue;
+      seg.push(p.point[i * 3]!, p.point[i * 3 + 1]!, p.point[i * 3 + 2]!, to[0]!, to[1]!, to[2]!);
       vp.push(zone === -1 ? 1 : 0);
       if (zone === -1) viewpoints.add(rec);
       else sensors.add(`${zone}:${rec}`);

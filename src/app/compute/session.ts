@@ -456,8 +456,8 @@ export function watchAutosave(): () => void {
   });
 }
 
-function download(text: string, fileName: string, type: string): void {
-  const url = URL.createObjectURL(new Blob([text], { type }));
+function download(data: string | Uint8Array, fileName: string, type: string): void {
+  const url = URL.createObjectURL(new Blob([data as BlobPart], { type }));
   const a = document.createElement('a');
   a.href = url;
   a.download = fileName;
@@ -477,10 +477,17 @@ export function saveProject(): void {
   download(JSON.stringify(doc, null, 2) + '\n', `${slug(doc.name)}.json`, 'application/json');
 }
 
-export function exportResults(): void {
+export async function exportResults(): Promise<void> {
   if (!heavy.results) {
     notify('error', 'No results yet: run the audit first.');
     return;
   }
-  download(JSON.stringify(heavy.results), 'results.json', 'application/json');
+  const s = useViewer.getState();
+  try {
+    // The worker holds the full Results and writes the JSON; the page only saves the bytes.
+    const bytes = await client.exportResults(heavy.designs && s.activeDesign ? s.activeDesign : undefined);
+    download(bytes, 'results.json', 'application/json');
+  } catch (e) {
+    notify('error', `The results could not be exported: ${errorText(e)}`);
+  }
 }

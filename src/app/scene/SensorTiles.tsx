@@ -35,7 +35,9 @@ export function SensorTiles() {
     if (!r || resultsVersion === 0) return null;
     const n = sensorCount(r);
     const owner: [number, number][] = [];
-    r.zones.forEach((z, zi) => z.sensors.forEach((_, si) => owner.push([zi, si])));
+    r.zones.forEach((z, zi) => {
+      for (let si = 0; si < z.sensorCount; si++) owner.push([zi, si]);
+    });
     return { n, owner };
   }, [resultsVersion]);
 
@@ -50,9 +52,9 @@ export function SensorTiles() {
       const spec = doc?.zones?.find((d) => d.name === z.name);
       // Nearly touching on the difference map, so the hot floor between tiles is not read as "hotter".
       const size = (spec?.spacingM ?? 1) * (extra === 'mrtChange' ? 0.97 : 0.82);
-      for (const s of z.sensors) {
+      for (let i = 0; i < z.sensorCount; i++) {
         m.makeScale(size, size, 1);
-        m.setPosition(s.position[0], s.position[1], s.position[2] - z.sensorHeightM + TILE_LIFT_M);
+        m.setPosition(z.positions[i * 3]!, z.positions[i * 3 + 1]!, z.positions[i * 3 + 2]! - z.sensorHeightM + TILE_LIFT_M);
         im.setMatrixAt(k++, m);
       }
     }

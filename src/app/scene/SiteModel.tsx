@@ -7,6 +7,7 @@ import { heavy } from '../state/heavy.ts';
 import { modelColours, presetPerSurface, unindexedPositions } from './surfaceTones.ts';
 import { srgbToLinearInPlace } from './colourAttr.ts';
 import { addDraftPoint } from './pick.ts';
+import { modelTriangles, renderQuality } from './quality.ts';
 
 export function SiteModel() {
   const modelVersion = useViewer((s) => s.modelVersion);
@@ -41,6 +42,7 @@ export function SiteModel() {
   }, [geometry, doc, viewMode, selected, invalidate]);
 
   if (!geometry) return null;
+  const q = renderQuality(modelTriangles(heavy.model));
 
   const onClick = (e: ThreeEvent<MouseEvent>) => {
     if (addDraftPoint(e)) return;
@@ -54,8 +56,12 @@ export function SiteModel() {
   };
 
   return (
-    <mesh geometry={geometry} castShadow receiveShadow visible={!hasHeatmap} onClick={onClick} name="site-model">
-      <meshStandardMaterial vertexColors side={DoubleSide} roughness={0.9} metalness={0} polygonOffset polygonOffsetFactor={1} polygonOffsetUnits={1} />
+    <mesh geometry={geometry} castShadow={q.shadows} receiveShadow={q.shadows} visible={!hasHeatmap} onClick={onClick} name="site-model">
+      {q.material === 'lambert' ? (
+        <meshLambertMaterial key="lambert" vertexColors side={DoubleSide} polygonOffset polygonOffsetFactor={1} polygonOffsetUnits={1} />
+      ) : (
+        <meshStandardMaterial key="standard" vertexColors side={DoubleSide} roughness={0.9} metalness={0} polygonOffset polygonOffsetFactor={1} polygonOffsetUnits={1} />
+      )}
     </mesh>
   );
 }

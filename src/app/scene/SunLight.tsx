@@ -5,6 +5,7 @@ import { Object3D } from 'three';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
 import { engineGroupRotationRad, sunDirection } from '../compute/frames.ts';
+import { modelTriangles, renderQuality } from './quality.ts';
 
 /** The sun (altitude, azimuth) at the step shown: from the results, else from the sun path. */
 export function useSunAtStep(): { altitudeDeg: number; azimuthDeg: number; time: string } | null {
@@ -31,7 +32,7 @@ export function SunLight() {
     const b = m?.bounds ?? [0, 0, 0, 10, 10, 10];
     const c: [number, number, number] = [(b[0] + b[3]) / 2, (b[1] + b[4]) / 2, (b[2] + b[5]) / 2];
     const r = Math.max(10, Math.hypot(b[3] - b[0], b[4] - b[1], b[5] - b[2]) / 2);
-    return { c, r };
+    return { c, r, quality: renderQuality(modelTriangles(m)) };
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [modelVersion]);
 
@@ -61,8 +62,8 @@ export function SunLight() {
         position={pos}
         target={target}
         intensity={2.4 * strength}
-        castShadow={up}
-        shadow-mapSize={[2048, 2048]}
+        castShadow={up && frame.quality.shadows}
+        shadow-mapSize={[frame.quality.shadowMapSizePx, frame.quality.shadowMapSizePx]}
         shadow-bias={-0.0004}
         shadow-normalBias={0.03}
         shadow-camera-left={-frame.r * 1.3}

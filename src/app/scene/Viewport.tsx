@@ -18,6 +18,7 @@ import { EngineFrame } from './EngineFrame.tsx';
 import { SunPathDome } from './SunPathDome.tsx';
 import { DeviceModels } from './DeviceModels.tsx';
 import { ReflectionPaths } from './ReflectionPaths.tsx';
+import { modelTriangles, renderQuality } from './quality.ts';
 
 /** Frames the camera on the model whenever a new model is shown. */
 function CameraFit({ controls }: { controls: React.RefObject<OrbitControlsImpl | null> }) {
@@ -68,6 +69,38 @@ function KeyboardZoom({ controls }: { controls: React.RefObject<OrbitControlsImp
   return null;
 }
 
+/**
+ * Pixel ratio by model size: capped for large models, and lowered while the camera moves (the
+ * full ratio comes back, with one more frame, when the drag ends).
+ */
+function PixelRatio({ controls }: { controls: React.RefObject<OrbitControlsImpl | null> }) {
+  const modelVersion = useViewer((s) => s.modelVersion);
+  const setDpr = useThree((s) => s.setDpr);
+  const invalidate = useThree((s) => s.invalidate);
+  useEffect(() => {
+    const q = renderQuality(modelTriangles(heavy.model));
+    const device = typeof window !== 'undefined' ? window.devicePixelRatio || 1 : 1;
+    const still = Math.min(device, q.maxDpr);
+    const moving = Math.min(still, q.movingDpr);
+    setDpr(still);
+    invalidate();
+    const c = controls.current;
+    if (!c || moving === still) return;
+    const start = () => setDpr(moving);
+    const end = () => {
+      setDpr(still);
+      invalidate();
+    };
+    c.addEventListener('start', start);
+    c.addEventListener('end', end);
+    return () => {
+      c.removeEventListener('start', start);
+      c.removeEventListener('end', end);
+    };
+  }, [modelVersion, controls, setDpr, invalidate]);
+  return null;
+}
+
 /** Counts drawn frames on `window.sunfacetFramesDrawn` (the frame rate check of the end-to-end test reads it). */
 function FrameCounter() {
   useFrame(() => {
@@ -80,18 +113,24 @@ function FrameCounter() {
 export function Viewport() {
   const controls = useRef<OrbitControlsImpl | null>(null);
   const set = useViewer((s) => s.set);
+  useViewer((s) => s.modelVersion);
+  // Multisampling is decided when the WebGL context is made: a large model gets a fresh canvas
+  // without it (on a software renderer it roughly halves the frame time).
+  const large = renderQuality(modelTriangles(heavy.model)).large;
   return (
     <Canvas
+      key={large ? 'large-model' : 'full-quality'}
       frameloop="demand"
       shadows
       dpr={[1, 2]}
       camera={{ up: [0, 0, 1], position: [-30, -60, 40], fov: 40, near: 0.1, far: 3000 }}
       onPointerMissed={() => set({ picked: null })}
-      gl={{ antialias: true }}
+      gl={{ antialias: !large }}
     >
       <color attach="background" args={['#e6e9ec']} />
       <OrbitControls ref={controls} makeDefault enableDamping={false} maxPolarAngle={Math.PI * 0.495} />
       <CameraFit controls={controls} />
+      <PixelRatio controls={controls} />
       <FrameCounter />
       <KeyboardZoom controls={controls} />
       <SunLight />

@@ -1,5 +1,5 @@
 /** Values and ranges of the extra zone layers (difference map, glare hours), shared by the tiles and the legends. */
-import type { Results } from '../../audit/results.ts';
+import type { ResultsView } from '../compute/resultColumns.ts';
 import { heavy } from '../state/heavy.ts';
 import type { DiffMode, ZoneExtra } from '../state/store.ts';
 import { differenceValues, glareHoursValues, hasStepDifferences } from '../compute/designView.ts';
@@ -16,7 +16,7 @@ export type ExtraColours =
  * The values of an extra layer for the shown results. The difference map's range is symmetric
  * over every step of the pair (so colours compare across time), or over the daylight means.
  */
-export function zoneExtraColours(r: Results, extra: ZoneExtra, timeIndex: number, diffMode: DiffMode, scale: ScaleId): ExtraColours | null {
+export function zoneExtraColours(r: ResultsView, extra: ZoneExtra, timeIndex: number, diffMode: DiffMode, scale: ScaleId): ExtraColours | null {
   if (extra === 'mrtChange') {
     const pair = heavy.pair;
     if (!pair) return null;

@@ -4,7 +4,7 @@
  * version numbers in the store.
  */
 import type { ModelView, PatchView, SunPath } from '../compute/auditApi.ts';
-import type { Results } from '../../audit/results.ts';
+import type { ResultsView } from '../compute/resultColumns.ts';
 import type { Comparison } from '../../audit/options.ts';
 import type { DesignOutcome } from '../compute/auditApi.ts';
 
@@ -12,7 +12,8 @@ export interface HeavyData {
   /** The model file's bytes (for the audit, Save and autosave). */
   modelBytes: Uint8Array | null;
   model: ModelView | null;
-  results: Results | null;
+  /** The shown results as columns (the full Results stay in the audit worker). */
+  results: ResultsView | null;
   patches: PatchView | null;
   sunPath: SunPath | null;
   /** The hourly weather file the project refers to (weather.source "file"). */

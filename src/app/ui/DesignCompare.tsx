@@ -100,12 +100,12 @@ function zoneGlareHours(r: NonNullable<typeof heavy.results>, values: Float32Arr
   let k = 0;
   return r.zones.map((z) => {
     let maxH = 0, withAny = 0;
-    for (let i = 0; i < z.sensors.length; i++, k++) {
+    for (let i = 0; i < z.sensorCount; i++, k++) {
       const v = values[k]!;
       if (v > 0) withAny++;
       if (v > maxH) maxH = v;
     }
-    return { name: z.name, maxH: Math.round(maxH * 10) / 10, sensorsWith: withAny, sensors: z.sensors.length };
+    return { name: z.name, maxH: Math.round(maxH * 10) / 10, sensorsWith: withAny, sensors: z.sensorCount };
   });
 }
 

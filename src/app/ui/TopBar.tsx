@@ -44,7 +44,7 @@ export function TopBar() {
       />
       <button type="button" onClick={() => void loadDemo(true)}>Demo</button>
       <button type="button" onClick={saveProject} disabled={!doc}>Save project</button>
-      <button type="button" onClick={exportResults} disabled={!hasResults}>Export results</button>
+      <button type="button" onClick={() => void exportResults()} disabled={!hasResults}>Export results</button>
       <div className="segmented" role="group" aria-label="Units">
         {(['SI', 'IP'] as const).map((u) => (
           <button key={u} type="button" aria-pressed={units === u} onClick={() => set({ units: u })}>
