@@ -9,12 +9,20 @@
  * change of the zone's peak MRT, of the hours in each UTCI category (mean hours per sensor) and of
  * the hours with MRT above the threshold. Sensors are matched by position (to 1 mm); a sensor that
  * exists in only one design (e.g. inside a new tree trunk) is left out of the means and counted.
+ *
+ * An option that adds devices re-traces only what they can change (stages/retrace.ts), reusing the
+ * baseline's geometry pass; its results equal a full trace of the option exactly. Every design
+ * with devices traces patches with the stream keys of `designPatchStreams`, so that holds.
  */
 import type { Project } from './project.ts';
 import type { LoadedProject } from './load.ts';
 import type { Results } from './results.ts';
 import { runAuditWithState, type AuditOptions, type RunRecord } from './pipeline.ts';
-import { prepareModel } from './stages/model.ts';
+import { prepareModel, type PreparedModel } from './stages/model.ts';
+import { buildSteps } from './stages/steps.ts';
+import { geometryPass, type GeometryData } from './stages/geometryPass.ts';
+import { addedDeviceBoxes, designPatchStreams, retraceGeometry, type RetraceStats } from './stages/retrace.ts';
+import { createInProcessExecutor } from '../trace/pool/workerPool.ts';
 import { summarizeResults, DEFAULT_MRT_THRESHOLD_C } from './summary.ts';
 
 export interface DesignRun {
@@ -23,6 +31,16 @@ export interface DesignRun {
   record: RunRecord;
   /** True when this design reused the baseline's geometry pass (materials-only option). */
   reusedGeometry: boolean;
+  /** When the option's devices were re-traced incrementally on the baseline's geometry: what was traced. */
+  retrace?: RetraceStats;
+  /** Why an option adding devices was traced in full instead (no baseline run, or the model changed). */
+  fullTraceReason?: string;
+}
+
+/** Options of runDesigns beyond the audit's. */
+export interface DesignRunOptions {
+  /** Trace every design in full (no incremental re-trace); for checks and measurements. */
+  fullTrace?: boolean;
 }
 
 export interface ZoneChange {
@@ -63,27 +81,55 @@ export function designProjects(project: Project): { name: string; project: Proje
   ];
 }
 
-export async function runDesigns(loaded: LoadedProject, opts: AuditOptions = {}, only?: string[]): Promise<DesignRun[]> {
+export async function runDesigns(loaded: LoadedProject, opts: AuditOptions & DesignRunOptions = {}, only?: string[]): Promise<DesignRun[]> {
   const designs = designProjects(loaded.project).filter((d) => !only || only.includes(d.name));
   const out: DesignRun[] = [];
-  let baselineState: Awaited<ReturnType<typeof runAuditWithState>>['state'] | undefined;
-  for (const d of designs) {
-    const sub: LoadedProject = { ...loaded, project: d.project };
-    const sameGeometry = baselineState !== undefined && d.project.devices.length === loaded.project.devices.length;
-    const say = (s: string) => opts.onProgress?.({ stage: `${d.name}: ${s}`, done: 0, total: 1 });
-    let r: Awaited<ReturnType<typeof runAuditWithState>>;
-    if (sameGeometry) {
-      // Materials only: the geometry (and every ray) is the baseline's; re-resolve the materials.
-      say('reusing the geometry pass');
+  let baselineState: { model: PreparedModel; geometry: GeometryData; patchStreams: Uint32Array | undefined } | undefined;
+  const tracer = opts.tracer ?? createInProcessExecutor();
+  const auditOpts: AuditOptions = { ...opts, tracer };
+  const baseDevices = loaded.project.devices.length;
+  try {
+    for (const d of designs) {
+      const sub: LoadedProject = { ...loaded, project: d.project };
+      const sameGeometry = baselineState !== undefined && d.project.devices.length === baseDevices;
+      const say = (s: string, done = 0, total = 1) => opts.onProgress?.({ stage: `${d.name}: ${s}`, done, total });
+      let r: Awaited<ReturnType<typeof runAuditWithState>>;
+      let retrace: RetraceStats | undefined, fullTraceReason: string | undefined;
       const model = await prepareModel(sub);
-      const g = baselineState!;
-      const same = model.patches.count === g.model.patches.count && model.patches.ids.every((id, i) => id === g.model.patches.ids[i]);
-      r = await runAuditWithState(sub, opts, same ? { model, geometry: g.geometry } : undefined);
-    } else {
-      r = await runAuditWithState(sub, { ...opts, onProgress: (p) => opts.onProgress?.({ ...p, stage: `${d.name}: ${p.stage}` }) });
+      const patchStreams = designPatchStreams(model, d.project.devices);
+      const same = sameGeometry && model.patches.count === baselineState!.model.patches.count && model.patches.ids.every((id, i) => id === baselineState!.model.patches.ids[i]);
+      let geometry: GeometryData | undefined;
+      if (same) {
+        // Materials only: the geometry (and every ray) is the baseline's; re-resolve the materials.
+        say('reusing the geometry pass');
+        geometry = baselineState!.geometry;
+      } else {
+        const steps = buildSteps(d.project, loaded.weather);
+        const tz = d.project.site.timeZone;
+        if (baselineState !== undefined && d.project.devices.length > baseDevices && !opts.fullTrace) {
+          say('re-tracing what the new devices can change');
+          const res = await retraceGeometry({
+            base: baselineState, model, patchStreams, addedBoxes: addedDeviceBoxes(d.project.devices, baseDevices),
+            steps, sampling: d.project.sampling, tracer, siteTimeZone: tz, onStage: say, ...(opts.signal ? { signal: opts.signal } : {}),
+          });
+          if (res.geometry) {
+            geometry = res.geometry;
+            retrace = res.stats;
+          } else fullTraceReason = res.reason;
+        } else if (d.project.devices.length > baseDevices) {
+          fullTraceReason = opts.fullTrace ? 'full trace requested' : 'no baseline run to reuse';
+        }
+        geometry ??= await geometryPass(model, steps, d.project.sampling, tracer, { onStage: say, ...(opts.signal ? { signal: opts.signal } : {}), patchStreams }, tz);
+      }
+      r = await runAuditWithState(sub, auditOpts, { model, geometry });
+      if (d.name === loaded.project.baselineName) baselineState = { model, geometry, patchStreams };
+      out.push({
+        name: d.name, results: r.results, record: r.record, reusedGeometry: same,
+        ...(retrace ? { retrace } : {}), ...(fullTraceReason ? { fullTraceReason } : {}),
+      });
     }
-    if (d.name === loaded.project.baselineName) baselineState = r.state;
-    out.push({ name: d.name, results: r.results, record: r.record, reusedGeometry: sameGeometry });
+  } finally {
+    if (!opts.tracer) await tracer.close();
   }
   return out;
 }

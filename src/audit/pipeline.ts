@@ -12,6 +12,7 @@ import { geometryPass, shardSlice, type GeometryData } from './stages/geometryPa
 import { encodeGeometryPartial, decodeGeometryPartial, mergeGeometry, type PartialMeta } from './shard.ts';
 import { sensorPoints } from './stages/geometryPass.ts';
 import { InputError } from '../physics/errors.ts';
+import { designPatchStreams } from './stages/retrace.ts';
 import { runTimeSteps, type TimeStepOutput } from './stages/timeStep.ts';
 import { glareStage, GLARE_CATEGORIES, GLARE_CRITERION, GLARE_CAUTION, GLARE_HOURS_FROM, DEFAULT_GLARE_FIELD_DEG, type GlareData } from './stages/glare.ts';
 import type { TraceExecutor } from '../trace/pool/types.ts';
@@ -70,7 +71,8 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   let geometry: GeometryData;
   const tGeo = performance.now();
   try {
-    geometry = reuse?.geometry ?? (await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}) }, loaded.project.site.timeZone));
+    const patchStreams = designPatchStreams(model, loaded.project.devices);
+    geometry = reuse?.geometry ?? (await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}), ...(patchStreams ? { patchStreams } : {}) }, loaded.project.site.timeZone));
   } finally {
     if (!opts.tracer) await tracer.close();
   }
@@ -259,7 +261,8 @@ export async function runAuditShard(loaded: LoadedProject, shard: { index: numbe
   const tracer = opts.tracer ?? createInProcessExecutor();
   let geo: GeometryData;
   try {
-    geo = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, slice, ...(opts.signal ? { signal: opts.signal } : {}) }, loaded.project.site.timeZone);
+    const patchStreams = designPatchStreams(model, loaded.project.devices);
+    geo = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, slice, ...(opts.signal ? { signal: opts.signal } : {}), ...(patchStreams ? { patchStreams } : {}) }, loaded.project.site.timeZone);
   } finally {
     if (!opts.tracer) await tracer.close();
   }

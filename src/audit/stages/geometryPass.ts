@@ -3,15 +3,30 @@
  * distinct sun direction of the period, sky-patch visibility and surface views for every patch and
  * for the six directions of every sensor. Nothing here depends on the weather or the materials, so
  * changing those never re-traces.
+ *
+ * Tree crowns in the sky and the views (issue 6): the beam through a crown is traced per sun
+ * direction with the leafiness of that direction's day, but sky visibility and surface views are
+ * traced once per geometry, so they take every crown's MEAN transmittance over the period's days
+ * with the sun up (`crownExtinctionForPeriod`): exact for a design day, the period's average
+ * leafiness for longer periods. In the views a crown counts as seen at air temperature (it joins
+ * `otherFraction`, which the time stepping already gives σT_air⁴ and no shortwave).
+ *
+ * Random streams of patches (`GeometryPassOptions.patchStreams`, from retrace.ts
+ * `designPatchStreams`): device patches sit between the model's and the ground apron's, so adding
+ * a device shifts the apron's indices; keyed streams keep every patch's numbers when devices are
+ * added, which lets an option re-trace only what its new devices can change (retrace.ts).
  */
 import type { PreparedModel } from './model.ts';
 import type { Steps } from './steps.ts';
 import type { TraceExecutor, TraceRunOptions } from '../../trace/pool/types.ts';
-import type { SurfaceViewsResult } from '../../trace/queries/surfaceViews.ts';
+import type { SurfaceViewsInput, SurfaceViewsResult } from '../../trace/queries/surfaceViews.ts';
+import type { SkyVisibilityInput } from '../../trace/queries/skyVisibility.ts';
 import { SIX_DIRECTIONS } from '../../trace/queries/surfaceViews.ts';
 import { skySubdivision } from '../../physics/skySubdivision.ts';
-import { sunTransmittance } from '../../trace/queries/sunTransmittance.ts';
+import { sunTransmittance, type SunTransmittanceInput } from '../../trace/queries/sunTransmittance.ts';
 import { crownExtinctionForDay } from '../../trace/crowns.ts';
+import { CROWN_SHAPE_FLOATS, type CrownSet } from '../../geometry/generators/tree.ts';
+import { crownExtinctionPerM } from '../../physics/vegetation.ts';
 import { dayOfYearLocal } from '../../physics/vegetation.ts';
 import { zoneOffsetMinutes } from '../../physics/time.ts';
 import type { SamplingSpec } from '../project.ts';
@@ -83,6 +98,36 @@ export interface GeometryPassOptions {
   signal?: AbortSignal;
   /** Trace only patches [p0, p1) and sensors [s0, s1) (a shard); default everything. */
   slice?: GeometrySlice;
+  /** Random stream per patch (retrace.ts `designPatchStreams`); default the patch index. */
+  patchStreams?: Uint32Array | undefined;
+}
+
+/**
+ * Extinction per crown [1/m] for the sky and the views: from each crown's mean seasonal
+ * transmittance over the distinct local days of the steps with the sun up (all steps if none),
+ * k = −ln(τ̄)/H (vegetation.ts convention).
+ */
+export function crownExtinctionForPeriod(crowns: CrownSet, steps: Steps, siteTimeZone: string): Float64Array {
+  const C = crowns.count;
+  const out = new Float64Array(C);
+  if (C === 0) return out;
+  const days = new Set<number>();
+  for (let pass = 0; pass < 2 && days.size === 0; pass++) {
+    for (let i = 0; i < steps.count; i++) {
+      if (pass === 0 && !(steps.sunAltitudeDeg[i]! > 0)) continue;
+      days.add(dayOfYearLocal(steps.timeMs[i]!, zoneOffsetMinutes(siteTimeZone, steps.timeMs[i]!)));
+    }
+  }
+  const sumTau = new Float64Array(C), kDay = new Float64Array(C);
+  for (const d of [...days].sort((a, b) => a - b)) {
+    crownExtinctionForDay(crowns, d, kDay);
+    for (let c = 0; c < C; c++) sumTau[c]! += Math.exp(-kDay[c]! * 2 * crowns.ellipsoids[c * CROWN_SHAPE_FLOATS + 5]!);
+  }
+  for (let c = 0; c < C; c++) {
+    const h = 2 * crowns.ellipsoids[c * CROWN_SHAPE_FLOATS + 5]!;
+    out[c] = crownExtinctionPerM(Math.min(1, Math.max(1e-12, sumTau[c]! / Math.max(1, days.size))), h);
+  }
+  return out;
 }
 
 export interface GeometrySlice {
@@ -105,8 +150,7 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   const N = sensors.length / 3;
   const sky = skySubdivision(SKY_LEVEL);
   const B = sky.bandStart.length;
-  const tr = model.transmission;
-  const { sunIndexOfStep, directions, stepOfSun } = distinctSunDirections(steps, tr !== undefined && tr.crowns.count > 0);
+  const { sunIndexOfStep, directions, transmittanceBase } = sunSetup(model, steps, siteTimeZone);
   const S = directions.length / 3;
   const slice = opts.slice ?? { patches: [0, P] as [number, number], sensors: [0, N] as [number, number] };
   const run = (stage: string, range?: readonly [number, number]): TraceRunOptions => ({
@@ -124,6 +168,86 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
     timings[name] = Math.round(performance.now() - t0);
     return r;
   };
+  let patchSun: Uint8Array, sensorSun: Uint8Array;
+  let patchSunTransmittance: Float32Array | undefined, sensorSunTransmittance: Float32Array | undefined;
+  if (transmittanceBase) {
+    // Fabric sheets and tree crowns attenuate the beam: trace transmittances (in this thread).
+    const base = transmittanceBase;
+    patchSunTransmittance = await time('sun through devices on surfaces', async () => sunTransmittance(bvh, { ...base, points: patches.centroids, normals: patches.normals }, pr[0], pr[1]));
+    sensorSunTransmittance = await time('sun through devices on sensors', async () => sunTransmittance(bvh, { ...base, points: sensors }, sr[0], sr[1]));
+    patchSun = Uint8Array.from(patchSunTransmittance, (x) => (x > 0 ? 1 : 0));
+    sensorSun = Uint8Array.from(sensorSunTransmittance, (x) => (x > 0 ? 1 : 0));
+  } else {
+    patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
+    sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
+  }
+  const inputs = geometryQueryInputs(model, steps, sampling, siteTimeZone, opts.patchStreams);
+  const patchSky = await time('sky seen by surfaces', () => tracer.skyVisibility(bvh, inputs.patchSky, run('sky seen by surfaces', pr)));
+  const sensorSky = await time('sky seen by sensors', () => tracer.skyVisibility(bvh, inputs.sensorSky, run('sky seen by sensors', sr6)));
+  const patchViews = await time('surface views of surfaces', () => tracer.surfaceViews(bvh, inputs.patchViews, run('surface views of surfaces', pr)));
+  const sensorViews = await time('surface views of sensors', () => tracer.surfaceViews(bvh, inputs.sensorViews, run('surface views of sensors', sr)));
+  const sensorSkyBand = toBands(sensorSky.patchProjectedSr, nS * 6, sky.count, sky.bandStart, sky.bandCount);
+  const sensorSkyViewFactor = skyViewFactorsFromBands(sensorSkyBand, nS, B);
+  return {
+    sunIndexOfStep, sunCount: S, patchSun, sensorSun, bandCount: B,
+    patchSkyBand: toBands(patchSky.patchProjectedSr, nP, sky.count, sky.bandStart, sky.bandCount),
+    sensorSkyBand, sensorSkyViewFactor,
+    patchViews, sensorViews, slice, timings,
+    ...(patchSunTransmittance ? { patchSunTransmittance } : {}),
+    ...(sensorSunTransmittance ? { sensorSunTransmittance } : {}),
+  };
+}
+
+/** What the sun part of the pass traces: the distinct directions and, with fabric or crowns, the transmittance input. */
+export interface SunSetup {
+  sunIndexOfStep: Int32Array;
+  directions: Float64Array;
+  stepOfSun: Int32Array;
+  transmittanceBase?: Omit<SunTransmittanceInput, 'points' | 'normals'>;
+}
+
+export function sunSetup(model: PreparedModel, steps: Steps, siteTimeZone: string): SunSetup {
+  const tr = model.transmission;
+  const ground = model.hasGroundPlane ? { z: model.groundZ } : null;
+  const { sunIndexOfStep, directions, stepOfSun } = distinctSunDirections(steps, tr !== undefined && tr.crowns.count > 0);
+  if (!tr) return { sunIndexOfStep, directions, stepOfSun };
+  const S = directions.length / 3;
+  const C = tr.crowns.count;
+  const k = new Float64Array(S * C);
+  const kDay = new Float64Array(C);
+  for (let s = 0; s < S; s++) {
+    const t = stepOfSun[s]!;
+    crownExtinctionForDay(tr.crowns, dayOfYearLocal(steps.timeMs[t]!, zoneOffsetMinutes(siteTimeZone, steps.timeMs[t]!)), kDay);
+    k.set(kDay, s * C);
+  }
+  return {
+    sunIndexOfStep, directions, stepOfSun,
+    transmittanceBase: { sunDirections: directions, ground, triangleTransmittance: tr.triangleTransmittance, skipSemiTransparent: tr.skipSemiTransparent, skipOpaque: tr.skipOpaque, crowns: tr.crowns, crownExtinctionPerM: k },
+  };
+}
+
+/** Oke's ψ_s per sensor: the upward-facing plane (direction 0 of the six) — Σ_k P_k / π. */
+export function skyViewFactorsFromBands(sensorSkyBand: Float32Array, sensorCount: number, B: number): Float32Array {
+  const out = new Float32Array(sensorCount);
+  for (let k = 0; k < sensorCount; k++) {
+    let sum = 0;
+    for (let b = 0; b < B; b++) sum += sensorSkyBand[6 * k * B + b]!;
+    out[k] = sum / Math.PI;
+  }
+  return out;
+}
+
+/**
+ * The four sky and view query inputs of the geometry pass (shared with retrace.ts, which traces
+ * subsets of the same receivers with the same settings and streams).
+ */
+export function geometryQueryInputs(model: PreparedModel, steps: Steps, sampling: SamplingSpec, siteTimeZone: string, patchStreams?: Uint32Array): {
+  patchSky: SkyVisibilityInput; sensorSky: SkyVisibilityInput; patchViews: SurfaceViewsInput; sensorViews: SurfaceViewsInput;
+} {
+  const { patches } = model;
+  const ground = model.hasGroundPlane ? { z: model.groundZ } : null;
+  const sensors = sensorPoints(model);
+  const N = sensors.length / 3;
   // Six receivers per sensor for the directional sky: the same point, six normals.
   const sixPoints = new Float64Array(N * 18);
   const sixNormals = new Float64Array(N * 18);
@@ -135,55 +259,22 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
   }
   const trianglePatch = Int32Array.from(patches.patchOfTriangle);
   const seed = sampling.seed;
-  let patchSun: Uint8Array, sensorSun: Uint8Array;
-  let patchSunTransmittance: Float32Array | undefined, sensorSunTransmittance: Float32Array | undefined;
-  if (tr) {
-    // Fabric sheets and tree crowns attenuate the beam: trace transmittances (in this thread).
-    const C = tr.crowns.count;
-    const k = new Float64Array(S * C);
-    const kDay = new Float64Array(C);
-    for (let s = 0; s < S; s++) {
-      const t = stepOfSun[s]!;
-      crownExtinctionForDay(tr.crowns, dayOfYearLocal(steps.timeMs[t]!, zoneOffsetMinutes(siteTimeZone, steps.timeMs[t]!)), kDay);
-      k.set(kDay, s * C);
-    }
-    const base = { sunDirections: directions, ground, triangleTransmittance: tr.triangleTransmittance, skipSemiTransparent: tr.skipSemiTransparent, skipOpaque: tr.skipOpaque, crowns: tr.crowns, crownExtinctionPerM: k };
-    patchSunTransmittance = await time('sun through devices on surfaces', async () => sunTransmittance(bvh, { ...base, points: patches.centroids, normals: patches.normals }, pr[0], pr[1]));
-    sensorSunTransmittance = await time('sun through devices on sensors', async () => sunTransmittance(bvh, { ...base, points: sensors }, sr[0], sr[1]));
-    patchSun = Uint8Array.from(patchSunTransmittance, (x) => (x > 0 ? 1 : 0));
-    sensorSun = Uint8Array.from(sensorSunTransmittance, (x) => (x > 0 ? 1 : 0));
-  } else {
-    patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
-    sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
-  }
-  const patchSky = await time('sky seen by surfaces', () =>
-    tracer.skyVisibility(bvh, { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed }, run('sky seen by surfaces', pr)));
-  const sensorSky = await time('sky seen by sensors', () =>
-    tracer.skyVisibility(bvh, { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1 }, run('sky seen by sensors', sr6)));
-  const patchViews = await time('surface views of surfaces', () =>
-    tracer.surfaceViews(bvh, { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3 }, run('surface views of surfaces', pr)));
-  const sensorViews = await time('surface views of sensors', () =>
-    tracer.surfaceViews(bvh, { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4 }, run('surface views of sensors', sr)));
-  const sensorSkyBand = toBands(sensorSky.patchProjectedSr, nS * 6, sky.count, sky.bandStart, sky.bandCount);
-  // Oke's ψ_s: the upward-facing plane (direction 0 of the six) — Σ_k P_k / π.
-  const sensorSkyViewFactor = new Float32Array(nS);
-  for (let k = 0; k < nS; k++) {
-    let sum = 0;
-    for (let b = 0; b < B; b++) sum += sensorSkyBand[6 * k * B + b]!;
-    sensorSkyViewFactor[k] = sum / Math.PI;
-  }
+  const crowns = model.transmission?.crowns;
+  const withCrowns = crowns !== undefined && crowns.count > 0
+    ? { crowns, crownExtinctionPerM: crownExtinctionForPeriod(crowns, steps, siteTimeZone) }
+    : {};
+  const streams = patchStreams ? { streamIndex: patchStreams } : {};
+  const P = patches.count;
   return {
-    sunIndexOfStep, sunCount: S, patchSun, sensorSun, bandCount: B,
-    patchSkyBand: toBands(patchSky.patchProjectedSr, nP, sky.count, sky.bandStart, sky.bandCount),
-    sensorSkyBand, sensorSkyViewFactor,
-    patchViews, sensorViews, slice, timings,
-    ...(patchSunTransmittance ? { patchSunTransmittance } : {}),
-    ...(sensorSunTransmittance ? { sensorSunTransmittance } : {}),
+    patchSky: { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed, ...withCrowns, ...streams },
+    sensorSky: { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1, ...withCrowns },
+    patchViews: { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3, ...withCrowns, ...streams },
+    sensorViews: { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4, ...withCrowns },
   };
 }
 
 /** Sums each receiver's per-patch projected solid angles over the bands of the subdivision. */
-function toBands(perPatch: Float32Array, receivers: number, K: number, bandStart: Uint32Array, bandCount: Uint32Array): Float32Array {
+export function toBands(perPatch: Float32Array, receivers: number, K: number, bandStart: Uint32Array, bandCount: Uint32Array): Float32Array {
   const B = bandStart.length;
   const out = new Float32Array(receivers * B);
   for (let r = 0; r < receivers; r++) {

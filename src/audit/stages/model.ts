@@ -105,7 +105,9 @@ export async function prepareModel(loaded: LoadedProject): Promise<PreparedModel
       const xs = z.polygon!.map((p) => p[0]), ys = z.polygon!.map((p) => p[1]);
       return [Math.min(...xs) - NEAR_ZONE_MARGIN_M, Math.min(...ys) - NEAR_ZONE_MARGIN_M, Math.max(...xs) + NEAR_ZONE_MARGIN_M, Math.max(...ys) + NEAR_ZONE_MARGIN_M] as const;
     });
-    scene = withGroundApron(scene, modelBvh, groundZ, warnings, near);
+    // The apron's extent comes from the imported model alone, so adding a device (an option) never
+    // moves the ground cells — the baseline's geometry can then be reused for the rest.
+    scene = withGroundApron(scene, modelBvh, groundZ, warnings, near, imported.positions);
   } else {
     warnings.push('no "ground" in the project: rays that leave the model below the horizon see a far ground of stone paving at its own temperature');
   }
@@ -225,13 +227,13 @@ export function insideByRayParity(bvh: BvhData, x: number, y: number, z: number)
  * zone (inside one of `near`, boxes [x0, y0, x1, y1]) form the surface "ground", the rest
  * "ground-outer" (patched more coarsely).
  */
-function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number, warnings: string[], near: readonly (readonly [number, number, number, number])[]): SceneArrays {
+function withGroundApron(scene: SceneArrays, modelBvh: BvhData, groundZ: number, warnings: string[], near: readonly (readonly [number, number, number, number])[], extent: Float32Array): SceneArrays {
   const p = scene.positions;
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity, z1 = -Infinity;
-  for (let i = 0; i < p.length; i += 3) {
-    x0 = Math.min(x0, p[i]!); x1 = Math.max(x1, p[i]!);
-    y0 = Math.min(y0, p[i + 1]!); y1 = Math.max(y1, p[i + 1]!);
-    z1 = Math.max(z1, p[i + 2]!);
+  for (let i = 0; i < extent.length; i += 3) {
+    x0 = Math.min(x0, extent[i]!); x1 = Math.max(x1, extent[i]!);
+    y0 = Math.min(y0, extent[i + 1]!); y1 = Math.max(y1, extent[i + 1]!);
+    z1 = Math.max(z1, extent[i + 2]!);
   }
   const margin = Math.max(APRON_MIN_MARGIN_M, 0.5 * (z1 - groundZ));
   const c = APRON_CELL_M;

@@ -32,7 +32,16 @@
  * test/trace/queries/skyVisibility.test.ts checks ±0.01 (and RMS < 0.004) on 180 receivers.
  *
  * Determinism: receiver i draws from stream i of `seed` only (random.ts), so any split of the
- * receivers into chunks or workers gives the same numbers.
+ * receivers into chunks or workers gives the same numbers. With `streamIndex`, receiver i draws from
+ * stream streamIndex[i] instead: a subset of receivers can be traced with the numbers they get in
+ * a full run (incremental re-trace, src/audit/stages/retrace.ts), and patches keep their numbers
+ * when devices are inserted before them.
+ *
+ * Tree crowns (optional `crowns` with `crownExtinctionPerM`): a sky ray that meets no surface is
+ * weighted by the crowns' Beer–Lambert transmittance along it (crowns.ts), so P_k is the sky seen
+ * through the foliage: P_k = U_k · Σ(V·τ·w) / Σw. The below-horizon samples are weighted alike
+ * (τ up to the ground crossing). With no crown on a ray τ = 1 exactly, so the numbers equal those
+ * of a run without crowns.
  */
 import type { BvhData } from '../bvh/build.ts';
 import { isOccluded } from '../bvh/query.ts';
@@ -42,6 +51,9 @@ import { buildFrame, frameToWorld, projectedSolidAngleOfCell, sampleCosineHemisp
 import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
 import { requireMatchingTriples, requireNonNegative, requireRange, requireSquareCount, requireTriples } from './inputChecks.ts';
 import { DEFAULT_NORMAL_OFFSET_M, DEFAULT_T_MIN_M } from './sunVisibility.ts';
+import { crownTransmittance } from '../crowns.ts';
+import type { CrownSet } from '../../geometry/generators/tree.ts';
+import { InputError } from '../../physics/errors.ts';
 
 /** Default stratified samples per sky patch (a 5 × 5 jittered grid). */
 export const DEFAULT_SKY_SAMPLES_PER_PATCH = 25;
@@ -68,6 +80,28 @@ export interface SkyVisibilityInput {
   normalOffsetM?: number | undefined;
   /** Nearest accepted hit [m] (default 1e-4). */
   tMinM?: number | undefined;
+  /** Optional random stream per receiver (default: the receiver's index). */
+  streamIndex?: Uint32Array | undefined;
+  /** Optional tree crowns that attenuate the sky seen (with `crownExtinctionPerM`). */
+  crowns?: CrownSet | undefined;
+  /** Extinction per crown [1/m] (crowns.count values). */
+  crownExtinctionPerM?: Float64Array | undefined;
+}
+
+/** Checks the optional stream list and crown inputs shared by skyVisibility and surfaceViews. */
+export function checkStreamsAndCrowns(
+  input: { streamIndex?: Uint32Array | undefined; crowns?: CrownSet | undefined; crownExtinctionPerM?: Float64Array | undefined },
+  count: number, place: string,
+): CrownSet | undefined {
+  if (input.streamIndex !== undefined && input.streamIndex.length !== count) {
+    throw new InputError({ problem: 'length does not match the receiver count', place: `${place} streamIndex`, expected: `${count} entries`, value: input.streamIndex.length });
+  }
+  const c = input.crowns;
+  if (c === undefined || c.count === 0) return undefined;
+  if (input.crownExtinctionPerM === undefined || input.crownExtinctionPerM.length < c.count) {
+    throw new InputError({ problem: 'crown extinction missing or too short', place: `${place} crownExtinctionPerM`, expected: `${c.count} values [1/m]`, value: input.crownExtinctionPerM?.length });
+  }
+  return c;
 }
 
 export interface SkyVisibilityResult {
@@ -111,6 +145,9 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
   requireNonNegative(offset, 'skyVisibility normalOffsetM', '[m]');
   requireNonNegative(tMin, 'skyVisibility tMinM', '[m]');
   const seed = input.seed ?? DEFAULT_SEED;
+  const streams = input.streamIndex;
+  const crowns = checkStreamsAndCrowns(input, count, 'skyVisibility');
+  const kc = input.crownExtinctionPerM!;
   const K = sky.count;
   const rows = end - start;
   const result: SkyVisibilityResult = {
@@ -129,7 +166,7 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
   const rng = _rng, dir = _dir, local = _local, frame = _frame;
   const invSide = 1 / side;
   for (let i = start; i < end; i++) {
-    seedRandom(rng, seed, i, SKY_VISIBILITY_SUBSTREAM);
+    seedRandom(rng, seed, streams === undefined ? i : streams[i]!, SKY_VISIBILITY_SUBSTREAM);
     let nx = 0, ny = 0, nz = 1;
     let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
     if (nrm !== undefined) {
@@ -172,7 +209,9 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
           const w = nx * dx + ny * dy + nz * dz;
           if (w <= 0) continue;
           sumW += w;
-          if (empty || !isOccluded(bvh, ox, oy, oz, dx, dy, dz, tMin, Infinity)) sumV += w;
+          if (empty || !isOccluded(bvh, ox, oy, oz, dx, dy, dz, tMin, Infinity)) {
+            sumV += crowns === undefined ? w : w * crownTransmittance(crowns, ox, oy, oz, dx, dy, dz, Infinity, kc);
+          }
         }
       }
       const p = sumW > 0 ? (U * sumV) / sumW : 0;
@@ -198,7 +237,9 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
           if (dz >= 0) continue;
           below++;
           const tG = groundCrossingT(gz, oz, dz);
-          if (empty || !isOccluded(bvh, ox, oy, oz, dx, dy, dz, tMin, tG)) seen++;
+          if (empty || !isOccluded(bvh, ox, oy, oz, dx, dy, dz, tMin, tG)) {
+            seen += crowns === undefined ? 1 : crownTransmittance(crowns, ox, oy, oz, dx, dy, dz, tG, kc);
+          }
         }
       }
       ground = below > 0 ? (g0 * seen) / below : g0;

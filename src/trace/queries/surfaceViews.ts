@@ -24,6 +24,17 @@
  * Accuracy with the default 1024 samples per direction: standard error below about 0.003 on any
  * fraction near a sharp edge (jittered stratification); the coaxial-disc test checks ±0.01.
  *
+ * Determinism: receiver i draws from stream i of `seed` (or streamIndex[i] when given, so a subset
+ * of receivers traced alone gets the numbers of a full run; see skyVisibility.ts).
+ *
+ * Tree crowns (optional `crowns` with `crownExtinctionPerM`): a ray that crosses crowns before what
+ * it meets (patch, ground, sky, other geometry) counts τ_ray toward that and 1 − τ_ray toward the
+ * crowns (crowns.ts, Beer–Lambert up to the hit). Crowns emit longwave at air temperature and
+ * reflect no shortwave (common practice), which is how the audit already treats `otherFraction`
+ * (geometry that is no patch), so the crown part is ADDED to otherFraction; `crownFraction` reports
+ * it separately (a part of otherFraction, not in addition to it). Rows still sum to 1. With no
+ * crown on a ray τ = 1 exactly, so the numbers equal those of a run without crowns.
+ *
  * Output: CSR-like typed arrays, one row per (receiver, direction), row r = (i − start)·D + d:
  * entries rowStart[r] .. rowStart[r+1]−1 of patchIndex (ascending) and fraction.
  */
@@ -35,6 +46,9 @@ import { buildFrame, frameToWorld, sampleCosineHemisphere } from '../sampling.ts
 import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
 import { requireMatchingTriples, requireNonNegative, requireRange, requireSquareCount, requireTriples } from './inputChecks.ts';
 import { DEFAULT_NORMAL_OFFSET_M, DEFAULT_T_MIN_M } from './sunVisibility.ts';
+import { checkStreamsAndCrowns } from './skyVisibility.ts';
+import { crownTransmittance } from '../crowns.ts';
+import type { CrownSet } from '../../geometry/generators/tree.ts';
 
 /** Default samples per receiver direction (a 32 × 32 jittered grid). */
 export const DEFAULT_VIEW_SAMPLES = 1024;
@@ -68,6 +82,12 @@ export interface SurfaceViewsInput {
   normalOffsetM?: number | undefined;
   /** Nearest accepted hit [m] (default 1e-4). */
   tMinM?: number | undefined;
+  /** Optional random stream per receiver (default: the receiver's index). */
+  streamIndex?: Uint32Array | undefined;
+  /** Optional tree crowns seen as semi-transparent volumes (with `crownExtinctionPerM`). */
+  crowns?: CrownSet | undefined;
+  /** Extinction per crown [1/m] (crowns.count values). */
+  crownExtinctionPerM?: Float64Array | undefined;
 }
 
 export interface SurfaceViewsResult {
@@ -83,8 +103,13 @@ export interface SurfaceViewsResult {
   skyFraction: Float32Array;
   /** Per row: fraction on the ground (plane, or beyond the model below the horizon) [-]. */
   groundFraction: Float32Array;
-  /** Per row: fraction on triangles with no patch (trianglePatch −1) [-]. */
+  /** Per row: fraction on triangles with no patch (trianglePatch −1), and on tree crowns when given [-]. */
   otherFraction: Float32Array;
+  /**
+   * Per row, only with crowns and only from a direct call (the pool's merge keeps the fields above):
+   * the part of otherFraction that is tree crowns [-].
+   */
+  crownFraction?: Float32Array;
 }
 
 export function surfaceViewsReceiverCount(input: SurfaceViewsInput): number {
@@ -148,9 +173,15 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
     }
   }
   const seed = input.seed ?? DEFAULT_SEED;
+  const streams = input.streamIndex;
+  const crowns = checkStreamsAndCrowns(input, count, 'surfaceViews');
+  const kc = input.crownExtinctionPerM!;
   const gz = groundZOf(input.ground);
   const empty = bvh.triangleCount === 0;
   const rows = (end - start) * D;
+  const crownFraction = crowns === undefined ? undefined : new Float32Array(rows);
+  // With crowns the hits carry weights τ (float sums); a ray missing every crown adds exactly 1.
+  const weights = crowns === undefined ? undefined : new Float64Array(patchCount);
 
   const rowStart = new Uint32Array(rows + 1);
   const skyFraction = new Float32Array(rows);
@@ -171,7 +202,7 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
   const invSide = 1 / side;
   const invN = 1 / N;
   for (let i = start; i < end; i++) {
-    seedRandom(rng, seed, i, SURFACE_VIEWS_SUBSTREAM);
+    seedRandom(rng, seed, streams === undefined ? i : streams[i]!, SURFACE_VIEWS_SUBSTREAM);
     let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
     if (mode === 'normal') {
       ox += nrm![i * 3]! * offset;
@@ -182,7 +213,7 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
       const r = (i - start) * D + d;
       if (mode === 'normal') buildFrame(nrm![i * 3]!, nrm![i * 3 + 1]!, nrm![i * 3 + 2]!, frame);
       else buildFrame(SIX_DIRECTIONS[d * 3]!, SIX_DIRECTIONS[d * 3 + 1]!, SIX_DIRECTIONS[d * 3 + 2]!, frame);
-      let nSky = 0, nGround = 0, nOther = 0, nTouched = 0;
+      let nSky = 0, nGround = 0, nOther = 0, nTouched = 0, nCrown = 0;
       for (let a = 0; a < side; a++) {
         for (let b = 0; b < side; b++) {
           const u1 = (a + nextFloat(rng)) * invSide;
@@ -191,6 +222,23 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
           frameToWorld(frame, local[0]!, local[1]!, local[2]!, dir);
           const dx = dir[0]!, dy = dir[1]!, dz = dir[2]!;
           const tG = groundCrossingT(gz, oz, dz);
+          if (crowns !== undefined) {
+            // τ of the crowns between the receiver and what the ray meets; 1 − τ is crown seen.
+            const found = !empty && intersectClosest(bvh, ox, oy, oz, dx, dy, dz, tMin, tG, hit);
+            const tau = crownTransmittance(crowns, ox, oy, oz, dx, dy, dz, found ? hit.t : tG, kc);
+            nCrown += 1 - tau;
+            if (found) {
+              const p = triPatch[hit.triangle]!;
+              if (p < 0) nOther += tau;
+              else {
+                if (counts[p] === 0) touched[nTouched++] = p;
+                counts[p] = 1;
+                weights![p]! += tau;
+              }
+            } else if (tG !== Infinity || dz < 0) nGround += tau;
+            else nSky += tau;
+            continue;
+          }
           if (!empty && intersectClosest(bvh, ox, oy, oz, dx, dy, dz, tMin, tG, hit)) {
             const p = triPatch[hit.triangle]!;
             if (p < 0) nOther++;
@@ -204,7 +252,8 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
       }
       skyFraction[r] = nSky * invN;
       groundFraction[r] = nGround * invN;
-      otherFraction[r] = nOther * invN;
+      otherFraction[r] = (nOther + nCrown) * invN;
+      if (crownFraction !== undefined) crownFraction[r] = nCrown * invN;
       sortAscending(touched, nTouched);
       if (nnz + nTouched > cap) {
         // amortised doubling, once in a while per row (never per ray)
@@ -220,8 +269,9 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
       for (let j = 0; j < nTouched; j++) {
         const p = touched[j]!;
         patchIndex[nnz] = p;
-        fraction[nnz] = counts[p]! * invN;
+        fraction[nnz] = (weights === undefined ? counts[p]! : weights[p]!) * invN;
         counts[p] = 0;
+        if (weights !== undefined) weights[p] = 0;
         nnz++;
       }
     }
@@ -235,6 +285,7 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
     skyFraction,
     groundFraction,
     otherFraction,
+    ...(crownFraction !== undefined ? { crownFraction } : {}),
   };
 }
 

@@ -1,0 +1,380 @@
+/**
+ * Incremental re-trace (issue 6: "adding a fin re-traces only the rays it can affect"): an option
+ * that only ADDS devices to the baseline reuses the baseline's geometry pass and traces again only
+ *
+ * - the new devices' own patches (new receivers);
+ * - receivers (patches, sensors) with a sky or view ray that can reach a new device's box
+ *   unobstructed, found by regenerating their rays exactly (trace/queries/boxProbe.ts);
+ * - receivers whose ray to some sun direction enters a new device's box;
+ * - receivers whose random stream differs between the two designs (sensors that moved in the list
+ *   because a trunk dropped one, patches whose stream key changed).
+ *
+ * Everything else is copied from the baseline, the surface-view rows remapped from the baseline's
+ * patch numbering to the option's by patch id. Re-traced receivers are traced in the option's own
+ * numbering with their own random streams (`streamIndex`), so the result equals a full geometry
+ * pass of the option bit for bit (test/audit/retrace.test.ts).
+ *
+ * When the rest of the model is not the same (e.g. a device widened the ground apron), the
+ * preconditions fail and the caller runs the full pass.
+ */
+import type { PreparedModel } from './model.ts';
+import type { Steps } from './steps.ts';
+import type { SamplingSpec } from '../project.ts';
+import type { TraceExecutor, TraceRunOptions } from '../../trace/pool/types.ts';
+import type { SurfaceViewsResult } from '../../trace/queries/surfaceViews.ts';
+import { buildDevices, type DeviceSpec } from '../../geometry/devices.ts';
+import { skySubdivision } from '../../physics/skySubdivision.ts';
+import { sunTransmittance } from '../../trace/queries/sunTransmittance.ts';
+import { skyRaysReachBoxes, sunRaysReachBoxes, viewRaysReachBoxes, type ProbeStats } from '../../trace/queries/boxProbe.ts';
+import { GROUND_OUTER_SURFACE_NAME, GROUND_SURFACE_NAME } from './model.ts';
+import { geometryQueryInputs, sensorPoints, skyViewFactorsFromBands, sunSetup, toBands, SKY_LEVEL, type GeometryData } from './geometryPass.ts';
+
+/** Padding of the device boxes [m]: covers the float32 rounding of the triangles and the 1 mm origin offsets. */
+export const BOX_PAD_M = 0.02;
+/** First stream key of device patches (model and apron patches count from 0). */
+export const DEVICE_STREAM_BASE = 0x80000000;
+
+/**
+ * Random stream per patch for a design: the model's and the apron's patches are numbered in order
+ * skipping the device patches (so a design without devices keeps stream = index), device patches
+ * from DEVICE_STREAM_BASE in order. Options append their devices to the baseline's, so a patch keeps
+ * its stream when devices are added. Undefined (stream = index) without devices, or when the
+ * device surfaces cannot be told apart in the scene.
+ * @param model the prepared model of the design
+ * @param devices the design's validated devices (project.devices)
+ */
+export function designPatchStreams(model: PreparedModel, devices: readonly DeviceSpec[]): Uint32Array | undefined {
+  if (devices.length === 0) return undefined;
+  const devNames = buildDevices(devices).scene.surfaceNames;
+  const names = model.scene.surfaceNames;
+  const L = names.length;
+  let apron = 0;
+  if (model.hasGroundPlane) {
+    for (const nm of [GROUND_OUTER_SURFACE_NAME, GROUND_SURFACE_NAME]) {
+      const at = L - 1 - apron;
+      if (at >= 0 && names[at] === nm && names.indexOf(nm) === at) apron++;
+      else break;
+    }
+  }
+  const start = L - apron - devNames.length;
+  if (start < 0) return undefined;
+  for (let j = 0; j < devNames.length; j++) {
+    const nm = names[start + j]!, want = devNames[j]!;
+    if (nm !== want && !nm.startsWith(want + '#')) return undefined;
+  }
+  const end = start + devNames.length;
+  const P = model.patches.count;
+  const out = new Uint32Array(P);
+  let r = 0, q = 0;
+  for (let p = 0; p < P; p++) {
+    const sid = model.patches.surfaceIds[p]!;
+    out[p] = sid >= start && sid < end ? DEVICE_STREAM_BASE + q++ : r++;
+  }
+  return out;
+}
+
+/** Padded boxes (6 per device) of devices [from, end) of a design's device list. */
+export function addedDeviceBoxes(devices: readonly DeviceSpec[], from: number, padM = BOX_PAD_M): Float64Array {
+  const b = buildDevices(devices).deviceBounds;
+  const out: number[] = [];
+  for (let d = from; d < devices.length; d++) {
+    const o = 6 * d;
+    if (!(b[o]! <= b[o + 3]!)) continue; // a device with no geometry
+    out.push(b[o]! - padM, b[o + 1]! - padM, b[o + 2]! - padM, b[o + 3]! + padM, b[o + 4]! + padM, b[o + 5]! + padM);
+  }
+  return Float64Array.from(out);
+}
+
+export interface RetraceStats {
+  patches: number;
+  newPatches: number;
+  sensors: number;
+  /** Receivers traced again per query (sensor sky: six receivers per sensor). */
+  traced: { patchSun: number; sensorSun: number; patchSky: number; sensorSky: number; patchViews: number; sensorViews: number };
+  /** Nominal rays of a full pass, rays traced here, rays regenerated by the probes (box tests only, mostly). */
+  rays: { full: number; traced: number; probed: number };
+  /** traced / full. */
+  shareOfRaysTraced: number;
+  timingsMs: { probe: number; trace: number; assemble: number };
+}
+
+export interface RetraceArgs {
+  base: { model: PreparedModel; geometry: GeometryData; patchStreams?: Uint32Array | undefined };
+  model: PreparedModel;
+  patchStreams?: Uint32Array | undefined;
+  /** Padded boxes of the added devices (addedDeviceBoxes). */
+  addedBoxes: Float64Array;
+  steps: Steps;
+  sampling: SamplingSpec;
+  tracer: TraceExecutor;
+  siteTimeZone: string;
+  onStage?: (stage: string, done: number, total: number) => void;
+  signal?: AbortSignal;
+}
+
+export type RetraceResult = { geometry: GeometryData; stats: RetraceStats; reason?: undefined } | { geometry: undefined; stats?: undefined; reason: string };
+
+function sameTriple(a: Float64Array, i: number, b: Float64Array, j: number): boolean {
+  return a[3 * i] === b[3 * j] && a[3 * i + 1] === b[3 * j + 1] && a[3 * i + 2] === b[3 * j + 2];
+}
+
+function inBoxes(boxes: Float64Array, x: number, y: number, z: number): boolean {
+  for (let o = 0; o < boxes.length; o += 6) {
+    if (x >= boxes[o]! && y >= boxes[o + 1]! && z >= boxes[o + 2]! && x <= boxes[o + 3]! && y <= boxes[o + 4]! && z <= boxes[o + 5]!) return true;
+  }
+  return false;
+}
+
+function pick(src: Float32Array | Float64Array, idx: ArrayLike<number>, width: number): Float64Array {
+  const out = new Float64Array(idx.length * width);
+  for (let j = 0; j < idx.length; j++) for (let c = 0; c < width; c++) out[j * width + c] = src[idx[j]! * width + c]!;
+  return out;
+}
+
+/** Indices where the flag is set. */
+function where(flags: Uint8Array): Uint32Array {
+  let n = 0;
+  for (let i = 0; i < flags.length; i++) if (flags[i]) n++;
+  const out = new Uint32Array(n);
+  n = 0;
+  for (let i = 0; i < flags.length; i++) if (flags[i]) out[n++] = i;
+  return out;
+}
+
+/**
+ * Re-traces what the added devices can change and copies the rest from the baseline.
+ * @returns the option's geometry data (equal to a full pass) and the counts, or the reason the
+ *   baseline cannot be reused (then run geometryPass)
+ */
+export async function retraceGeometry(a: RetraceArgs): Promise<RetraceResult> {
+  const t0 = performance.now();
+  const { model, steps, sampling, tracer } = a;
+  const bm = a.base.model, bg = a.base.geometry;
+  const P = model.patches.count, Pb = bm.patches.count;
+  if (bg.slice.patches[0] !== 0 || bg.slice.patches[1] !== Pb) return { geometry: undefined, reason: 'the baseline geometry is a shard' };
+  const sensors = sensorPoints(model), baseSensors = sensorPoints(bm);
+  const N = sensors.length / 3, Nb = baseSensors.length / 3;
+  if (bg.slice.sensors[0] !== 0 || bg.slice.sensors[1] !== Nb) return { geometry: undefined, reason: 'the baseline geometry is a shard' };
+
+  // Patches: by id, the same geometry; unmatched ones must be the new devices'.
+  const byId = new Map<string, number>();
+  bm.patches.ids.forEach((id, b) => byId.set(id, b));
+  const optToBase = new Int32Array(P).fill(-1);
+  const baseToOpt = new Int32Array(Pb).fill(-1);
+  let newPatches = 0;
+  for (let o = 0; o < P; o++) {
+    const b = byId.get(model.patches.ids[o]!);
+    const c = model.patches.centroids;
+    if (b === undefined) {
+      if (!inBoxes(a.addedBoxes, c[3 * o]!, c[3 * o + 1]!, c[3 * o + 2]!)) return { geometry: undefined, reason: `patch ${model.patches.ids[o]} is new but not on an added device` };
+      newPatches++;
+      continue;
+    }
+    if (!sameTriple(c, o, bm.patches.centroids, b) || !sameTriple(model.patches.normals, o, bm.patches.normals, b) || model.patches.areasM2[o] !== bm.patches.areasM2[b]) {
+      return { geometry: undefined, reason: `patch ${model.patches.ids[o]} changed shape` };
+    }
+    optToBase[o] = b;
+    baseToOpt[b] = o;
+  }
+  if (P - newPatches !== Pb) return { geometry: undefined, reason: 'baseline patches are missing from the option' };
+
+  // Sun directions must be the same vectors (with trees they are kept per day).
+  const sunOpt = sunSetup(model, steps, a.siteTimeZone);
+  const sunBase = sunSetup(bm, steps, a.siteTimeZone);
+  const S = sunOpt.directions.length / 3;
+  const sunSame = sunBase.directions.length === sunOpt.directions.length && sunBase.directions.every((x, i) => x === sunOpt.directions[i]) && bg.sunCount === S;
+
+  const inputs = geometryQueryInputs(model, steps, sampling, a.siteTimeZone, a.patchStreams);
+  const keyOpt = (o: number) => (a.patchStreams ? a.patchStreams[o]! : o);
+  const keyBase = (b: number) => (a.base.patchStreams ? a.base.patchStreams[b]! : b);
+
+  // Candidates for reuse, then the probes.
+  const tP = performance.now();
+  const stat: ProbeStats = { receiversProbed: 0, receiversSkippedByPlane: 0, raysGenerated: 0 };
+  const patchSkyT = new Uint8Array(P), patchViewT = new Uint8Array(P), patchSunT = new Uint8Array(P);
+  const candP: number[] = [], candSunP: number[] = [];
+  for (let o = 0; o < P; o++) {
+    const b = optToBase[o]!;
+    if (b < 0) { patchSkyT[o] = patchViewT[o] = patchSunT[o] = 1; continue; }
+    candSunP.push(o);
+    if (keyOpt(o) !== keyBase(b)) { patchSkyT[o] = patchViewT[o] = 1; continue; }
+    candP.push(o);
+  }
+  const sensorSkyT = new Uint8Array(6 * N), sensorViewT = new Uint8Array(N), sensorSunT = new Uint8Array(N);
+  const candS: number[] = [], candS6: number[] = [];
+  for (let k = 0; k < N; k++) {
+    if (k < Nb && sameTriple(sensors, k, baseSensors, k)) {
+      candS.push(k);
+      for (let d = 0; d < 6; d++) candS6.push(6 * k + d);
+    } else {
+      sensorViewT[k] = sensorSunT[k] = 1;
+      for (let d = 0; d < 6; d++) sensorSkyT[6 * k + d] = 1;
+    }
+  }
+  const boxes = a.addedBoxes, bvh = model.bvh;
+  const cP = Uint32Array.from(candP), cS = Uint32Array.from(candS), cS6 = Uint32Array.from(candS6), cSunP = Uint32Array.from(candSunP);
+  a.onStage?.('probing rays against the new devices', 0, 1);
+  const fSkyP = skyRaysReachBoxes(bvh, inputs.patchSky, boxes, cP, stat);
+  const fViewP = viewRaysReachBoxes(bvh, inputs.patchViews, boxes, cP, stat);
+  const fSkyS = skyRaysReachBoxes(bvh, inputs.sensorSky, boxes, cS6, stat);
+  const fViewS = viewRaysReachBoxes(bvh, inputs.sensorViews, boxes, cS, stat);
+  cP.forEach((o, j) => { if (fSkyP[j]) patchSkyT[o] = 1; if (fViewP[j]) patchViewT[o] = 1; });
+  cS6.forEach((r, j) => { if (fSkyS[j]) sensorSkyT[r] = 1; });
+  cS.forEach((k, j) => { if (fViewS[j]) sensorViewT[k] = 1; });
+  if (sunSame) {
+    const fSunP = sunRaysReachBoxes({ points: model.patches.centroids, normals: model.patches.normals, sunDirections: sunOpt.directions }, boxes, cSunP);
+    const fSunS = sunRaysReachBoxes({ points: sensors, sunDirections: sunOpt.directions }, boxes, cS);
+    cSunP.forEach((o, j) => { if (fSunP[j]) patchSunT[o] = 1; });
+    cS.forEach((k, j) => { if (fSunS[j]) sensorSunT[k] = 1; });
+  } else {
+    patchSunT.fill(1);
+    sensorSunT.fill(1);
+  }
+  const probeMs = performance.now() - tP;
+
+  // Trace the subsets in the option's numbering with their own streams.
+  const tT = performance.now();
+  const run = (stage: string): TraceRunOptions => ({
+    onProgress: (done, total) => a.onStage?.(stage, done, total),
+    ...(a.signal ? { signal: a.signal } : {}),
+  });
+  const iPSky = where(patchSkyT), iPView = where(patchViewT), iPSun = where(patchSunT);
+  const iSSky = where(sensorSkyT), iSView = where(sensorViewT), iSSun = where(sensorSunT);
+  const streamsOf = (idx: Uint32Array, key: (i: number) => number) => Uint32Array.from(idx, key);
+  const sky = skySubdivision(SKY_LEVEL);
+  const K = sky.count, B = sky.bandStart.length;
+  const skyP = iPSky.length === 0 ? undefined : await tracer.skyVisibility(bvh, { ...inputs.patchSky, points: pick(model.patches.centroids, iPSky, 3), normals: pick(model.patches.normals, iPSky, 3), streamIndex: streamsOf(iPSky, keyOpt) }, run('sky seen by surfaces (re-trace)'));
+  const skyS = iSSky.length === 0 ? undefined : await tracer.skyVisibility(bvh, { ...inputs.sensorSky, points: pick(inputs.sensorSky.points, iSSky, 3), normals: pick(inputs.sensorSky.normals!, iSSky, 3), streamIndex: streamsOf(iSSky, (r) => r) }, run('sky seen by sensors (re-trace)'));
+  const viewP = iPView.length === 0 ? undefined : await tracer.surfaceViews(bvh, { ...inputs.patchViews, points: pick(model.patches.centroids, iPView, 3), normals: pick(model.patches.normals, iPView, 3), streamIndex: streamsOf(iPView, keyOpt) }, run('surface views of surfaces (re-trace)'));
+  const viewS = iSView.length === 0 ? undefined : await tracer.surfaceViews(bvh, { ...inputs.sensorViews, points: pick(sensors, iSView, 3), streamIndex: streamsOf(iSView, (k) => k) }, run('surface views of sensors (re-trace)'));
+  const ground = model.hasGroundPlane ? { z: model.groundZ } : null;
+  const tb = sunOpt.transmittanceBase;
+  let sunP: Float32Array | Uint8Array | undefined, sunS: Float32Array | Uint8Array | undefined;
+  if (S > 0) {
+    if (tb) {
+      sunP = iPSun.length === 0 ? undefined : sunTransmittance(bvh, { ...tb, points: pick(model.patches.centroids, iPSun, 3), normals: pick(model.patches.normals, iPSun, 3) });
+      sunS = iSSun.length === 0 ? undefined : sunTransmittance(bvh, { ...tb, points: pick(sensors, iSSun, 3) });
+    } else {
+      sunP = iPSun.length === 0 ? undefined : await tracer.sunVisibility(bvh, { points: pick(model.patches.centroids, iPSun, 3), normals: pick(model.patches.normals, iPSun, 3), sunDirections: sunOpt.directions, ground }, run('sun on surfaces (re-trace)'));
+      sunS = iSSun.length === 0 ? undefined : await tracer.sunVisibility(bvh, { points: pick(sensors, iSSun, 3), sunDirections: sunOpt.directions, ground }, run('sun on sensors (re-trace)'));
+    }
+  }
+  const traceMs = performance.now() - tT;
+
+  // Assemble in the option's numbering.
+  const tA = performance.now();
+  const posOf = (idx: Uint32Array, n: number) => {
+    const m = new Int32Array(n).fill(-1);
+    idx.forEach((i, j) => { m[i] = j; });
+    return m;
+  };
+  // Sun rows (values, and transmittances with fabric or crowns).
+  const patchSunTr = tb ? new Float32Array(P * S) : undefined, sensorSunTr = tb ? new Float32Array(N * S) : undefined;
+  const patchSun = new Uint8Array(S > 0 ? P * S : 0), sensorSun = new Uint8Array(S > 0 ? N * S : 0);
+  const fillSun = (count: number, traced: Uint32Array, fresh: Float32Array | Uint8Array | undefined, baseRow: (i: number) => number, vis: Uint8Array, tr: Float32Array | undefined, bVis: Uint8Array, bTr: Float32Array | undefined) => {
+    if (S === 0) return;
+    const pos = posOf(traced, count);
+    for (let i = 0; i < count; i++) {
+      const j = pos[i]!;
+      for (let s = 0; s < S; s++) {
+        const v = j >= 0 ? fresh![j * S + s]! : bTr ? bTr[baseRow(i) * S + s]! : bVis[baseRow(i) * S + s]!;
+        if (tr) tr[i * S + s] = v;
+        vis[i * S + s] = tr ? (tr[i * S + s]! > 0 ? 1 : 0) : v;
+      }
+    }
+  };
+  fillSun(P, iPSun, sunP, (o) => optToBase[o]!, patchSun, patchSunTr, bg.patchSun, bg.patchSunTransmittance);
+  fillSun(N, iSSun, sunS, (k) => k, sensorSun, sensorSunTr, bg.sensorSun, bg.sensorSunTransmittance);
+  // Sky bands.
+  const patchSkyBand = new Float32Array(P * B);
+  const freshP = skyP ? toBands(skyP.patchProjectedSr, iPSky.length, K, sky.bandStart, sky.bandCount) : new Float32Array(0);
+  const posPSky = posOf(iPSky, P);
+  for (let o = 0; o < P; o++) {
+    const j = posPSky[o]!;
+    patchSkyBand.set(j >= 0 ? freshP.subarray(j * B, j * B + B) : bg.patchSkyBand.subarray(optToBase[o]! * B, optToBase[o]! * B + B), o * B);
+  }
+  const sensorSkyBand = new Float32Array(6 * N * B);
+  const freshS = skyS ? toBands(skyS.patchProjectedSr, iSSky.length, K, sky.bandStart, sky.bandCount) : new Float32Array(0);
+  const posSSky = posOf(iSSky, 6 * N);
+  for (let r = 0; r < 6 * N; r++) {
+    const j = posSSky[r]!;
+    sensorSkyBand.set(j >= 0 ? freshS.subarray(j * B, j * B + B) : bg.sensorSkyBand.subarray(r * B, r * B + B), r * B);
+  }
+  const sensorSkyViewFactor = skyViewFactorsFromBands(sensorSkyBand, N, B);
+  const patchViews = assembleViews(P, 1, iPView, viewP, bg.patchViews, (o) => optToBase[o]!, baseToOpt);
+  const sensorViews = assembleViews(N, 6, iSView, viewS, bg.sensorViews, (k) => k, baseToOpt);
+  const assembleMs = performance.now() - tA;
+
+  const spp = sampling.skyRaysPerPatch, vr = sampling.viewRays;
+  const full = (P + N) * S + (P + 6 * N) * K * spp + (P + 6 * N) * vr;
+  const traced = (iPSun.length + iSSun.length) * S + (iPSky.length + iSSky.length) * K * spp + (iPView.length + 6 * iSView.length) * vr;
+  const stats: RetraceStats = {
+    patches: P, newPatches, sensors: N,
+    traced: { patchSun: iPSun.length, sensorSun: iSSun.length, patchSky: iPSky.length, sensorSky: iSSky.length, patchViews: iPView.length, sensorViews: iSView.length },
+    rays: { full, traced, probed: stat.raysGenerated },
+    shareOfRaysTraced: full > 0 ? traced / full : 0,
+    timingsMs: { probe: Math.round(probeMs), trace: Math.round(traceMs), assemble: Math.round(assembleMs) },
+  };
+  const geometry: GeometryData = {
+    sunIndexOfStep: sunOpt.sunIndexOfStep, sunCount: S, patchSun, sensorSun, bandCount: B,
+    patchSkyBand, sensorSkyBand, sensorSkyViewFactor, patchViews, sensorViews,
+    slice: { patches: [0, P], sensors: [0, N] },
+    timings: { 'incremental: probe': stats.timingsMs.probe, 'incremental: trace': stats.timingsMs.trace, 'incremental: assemble': stats.timingsMs.assemble, total: Math.round(performance.now() - t0) },
+    ...(patchSunTr ? { patchSunTransmittance: patchSunTr } : {}),
+    ...(sensorSunTr ? { sensorSunTransmittance: sensorSunTr } : {}),
+  };
+  return { geometry, stats };
+}
+
+/**
+ * View rows in the option's order: re-traced receivers' rows from `fresh` (already in the option's
+ * patch numbering), the others from the baseline with patch indices mapped by id (ascending kept).
+ */
+function assembleViews(count: number, D: number, traced: Uint32Array, fresh: SurfaceViewsResult | undefined, base: SurfaceViewsResult, baseReceiver: (i: number) => number, baseToOpt: Int32Array): SurfaceViewsResult {
+  const pos = new Int32Array(count).fill(-1);
+  traced.forEach((i, j) => { pos[i] = j; });
+  const rows = count * D;
+  const rowStart = new Uint32Array(rows + 1);
+  let nnz = 0;
+  for (let i = 0; i < count; i++) {
+    const j = pos[i]!;
+    const src = j >= 0 ? fresh! : base;
+    const r0 = (j >= 0 ? j : baseReceiver(i)) * D;
+    for (let d = 0; d < D; d++) {
+      rowStart[i * D + d] = nnz;
+      nnz += src.rowStart[r0 + d + 1]! - src.rowStart[r0 + d]!;
+    }
+  }
+  rowStart[rows] = nnz;
+  const out: SurfaceViewsResult = {
+    directionsPerReceiver: D, rowStart,
+    patchIndex: new Uint32Array(nnz), fraction: new Float32Array(nnz),
+    skyFraction: new Float32Array(rows), groundFraction: new Float32Array(rows), otherFraction: new Float32Array(rows),
+  };
+  for (let i = 0; i < count; i++) {
+    const j = pos[i]!;
+    const src = j >= 0 ? fresh! : base;
+    const r0 = (j >= 0 ? j : baseReceiver(i)) * D;
+    for (let d = 0; d < D; d++) {
+      const r = i * D + d, s = r0 + d;
+      out.skyFraction[r] = src.skyFraction[s]!;
+      out.groundFraction[r] = src.groundFraction[s]!;
+      out.otherFraction[r] = src.otherFraction[s]!;
+      const e0 = src.rowStart[s]!, e1 = src.rowStart[s + 1]!, at = rowStart[r]!;
+      let sorted = true;
+      for (let e = e0; e < e1; e++) {
+        const p = j >= 0 ? src.patchIndex[e]! : baseToOpt[src.patchIndex[e]!]!;
+        out.patchIndex[at + e - e0] = p;
+        out.fraction[at + e - e0] = src.fraction[e]!;
+        if (e > e0 && p < out.patchIndex[at + e - e0 - 1]!) sorted = false;
+      }
+      if (!sorted) {
+        const n = e1 - e0;
+        const order = Array.from({ length: n }, (_, k) => k).sort((x, y) => out.patchIndex[at + x]! - out.patchIndex[at + y]!);
+        const pi = order.map((k) => out.patchIndex[at + k]!), fr = order.map((k) => out.fraction[at + k]!);
+        for (let k = 0; k < n; k++) { out.patchIndex[at + k] = pi[k]!; out.fraction[at + k] = fr[k]!; }
+      }
+    }
+  }
+  return out;
+}
