@@ -381,8 +381,10 @@ export function percentileStreamed(forEachValue: (visit: (v: number) => void) =>
   const k0 = Math.floor(h);
   const k1 = Math.min(k0 + 1, n - 1);
   const frac = h - k0;
-  const scale = HISTOGRAM_BINS / (hi - lo);
-  const binOf = (v: number): number => Math.min(HISTOGRAM_BINS - 1, Math.floor((v - lo) * scale));
+  // Divide by the span (not multiply by BINS/span): a span of a few denormals would make that
+  // factor infinite and 0·∞ NaN (found by the property test: [0, 5e-324]).
+  const span = hi - lo;
+  const binOf = (v: number): number => Math.min(HISTOGRAM_BINS - 1, Math.floor(((v - lo) / span) * HISTOGRAM_BINS));
   const hist = new Uint32Array(HISTOGRAM_BINS);
   forEachValue((v) => { hist[binOf(v)]! += 1; });
   // Find the bins holding ranks k0 and k1 and the rank where each bin starts.

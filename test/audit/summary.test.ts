@@ -180,6 +180,11 @@ describe('percentileStreamed', () => {
     );
   });
 
+  it('handles a span of denormals (regression: [0, 5e-324] gave NaN)', () => {
+    expect(run([0, 5e-324], 0)).toBe(0);
+    expect(run([0, 5e-324], 1)).toBe(5e-324);
+  });
+
   it('is exact on a large set spread over few bins and an outlier (many values per bin)', () => {
     const v: number[] = [];
     for (let i = 0; i < 200_000; i++) v.push(30 + ((i * 7919) % 1000) / 1e6); // all in one bin
