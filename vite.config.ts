@@ -18,6 +18,7 @@ export default defineConfig({
     root: '.',
     environment: 'node',
     include: ['test/**/*.test.ts'],
+    setupFiles: ['test/setup.ts'],
     testTimeout: 30000,
   },
 });
