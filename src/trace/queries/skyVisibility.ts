@@ -42,9 +42,18 @@
  * through the foliage: P_k = U_k · Σ(V·τ·w) / Σw. The below-horizon samples are weighted alike
  * (τ up to the ground crossing). With no crown on a ray τ = 1 exactly, so the numbers equal those
  * of a run without crowns.
+ *
+ * `batchRays: true`: per receiver, the sky rays (and the below-horizon rays when no ground plane
+ * cuts them) are generated first, traced with one `occludedBatch` call (the WebAssembly kernel
+ * when loaded), then summed in the same order as the per-ray path. The batch API stores rays in
+ * float32, so a ray grazing an edge can flip and the numbers may differ slightly from the default
+ * (float64, per-ray) path. Below-horizon rays that end on the ground plane (a per-ray tMax) are
+ * traced per ray on both paths.
  */
 import type { BvhData } from '../bvh/build.ts';
 import { isOccluded } from '../bvh/query.ts';
+import { occludedBatch } from '../bvh/batch.ts';
+import { ensureRayScratch, scratch } from './rayScratch.ts';
 import { skySubdivision, type SkySubdivision } from '../../physics/skySubdivision.ts';
 import { createRandomState, DEFAULT_SEED, nextFloat, seedRandom } from '../random.ts';
 import { buildFrame, frameToWorld, projectedSolidAngleOfCell, sampleCosineHemisphere, sampleSkyCell } from '../sampling.ts';
@@ -86,6 +95,8 @@ export interface SkyVisibilityInput {
   crowns?: CrownSet | undefined;
   /** Extinction per crown [1/m] (crowns.count values). */
   crownExtinctionPerM?: Float64Array | undefined;
+  /** Trace with the batch kernel (float32 rays; may differ slightly from the default path). */
+  batchRays?: boolean | undefined;
 }
 
 /** Checks the optional stream list and crown inputs shared by skyVisibility and surfaceViews. */
@@ -165,6 +176,8 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
   const nrm = input.normals;
   const rng = _rng, dir = _dir, local = _local, frame = _frame;
   const invSide = 1 / side;
+  const batched = input.batchRays === true && !empty;
+  if (batched) ensureRayScratch(K * side * side + gSide * gSide);
   for (let i = start; i < end; i++) {
     seedRandom(rng, seed, streams === undefined ? i : streams[i]!, SKY_VISIBILITY_SUBSTREAM);
     let nx = 0, ny = 0, nz = 1;
@@ -187,6 +200,10 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
       lastNx = nx;
       lastNy = ny;
       lastNz = nz;
+    }
+    if (batched) {
+      batchedReceiver(bvh, i - start, ox, oy, oz, nx, ny, nz, unobstructed, sky, side, gSide, gz, tMin, crowns, kc, result);
+      continue;
     }
     // Every upward ray from a point below the ground plane ends on it.
     const buried = gz === gz && oz < gz;
@@ -247,4 +264,114 @@ export function skyVisibility(bvh: BvhData, input: SkyVisibilityInput, start = 0
     result.groundViewFactor[i - start] = ground;
   }
   return result;
+}
+
+// Per receiver of the batch path: ray range end per patch (−1 = patch skipped).
+let _patchEnd = new Int32Array(0);
+
+/**
+ * One receiver of the batch path: draws the same numbers in the same order as the per-ray loop
+ * (in `_rng`), traces the sky rays and the unbounded below-horizon rays in one batch, then sums
+ * in the per-ray loop's order. Writes row `r` of `result`.
+ */
+function batchedReceiver(
+  bvh: BvhData, r: number, ox: number, oy: number, oz: number, nx: number, ny: number, nz: number,
+  unobstructed: Float64Array, sky: SkySubdivision, side: number, gSide: number, gz: number, tMin: number,
+  crowns: CrownSet | undefined, kc: Float64Array, result: SkyVisibilityResult,
+): void {
+  const K = sky.count;
+  if (_patchEnd.length < K) _patchEnd = new Int32Array(K);
+  const patchEnd = _patchEnd;
+  const rng = _rng, dir = _dir, local = _local, frame = _frame;
+  const rays = scratch.rays, dirs = scratch.dirs, weight = scratch.weight;
+  const invSide = 1 / side;
+  const buried = gz === gz && oz < gz;
+  const row = r * K;
+  let m = 0;
+  for (let k = 0; k < K; k++) {
+    const U = unobstructed[k]!;
+    if (U <= 0 || buried) {
+      patchEnd[k] = -1;
+      continue;
+    }
+    const a0 = sky.altMinRad[k]!, a1 = sky.altMaxRad[k]!, z0 = sky.azMinRad[k]!, z1 = sky.azMaxRad[k]!;
+    for (let a = 0; a < side; a++) {
+      for (let b = 0; b < side; b++) {
+        const u1 = (a + nextFloat(rng)) * invSide;
+        const u2 = (b + nextFloat(rng)) * invSide;
+        sampleSkyCell(a0, a1, z0, z1, u1, u2, dir);
+        const dx = dir[0]!, dy = dir[1]!, dz = dir[2]!;
+        const w = nx * dx + ny * dy + nz * dz;
+        if (w <= 0) continue;
+        weight[m] = w;
+        dirs[m * 3] = dx; dirs[m * 3 + 1] = dy; dirs[m * 3 + 2] = dz;
+        const o = m * 6;
+        rays[o] = ox; rays[o + 1] = oy; rays[o + 2] = oz;
+        rays[o + 3] = dx; rays[o + 4] = dy; rays[o + 5] = dz;
+        m++;
+      }
+    }
+    patchEnd[k] = m;
+  }
+  const skyRays = m;
+  // Below-horizon rays: unbounded ones join the batch; ones ending on the ground plane are traced here.
+  const g0 = 0.5 * (1 - Math.max(-1, Math.min(1, nz)));
+  let below = 0, seen = 0;
+  if (g0 > 0) {
+    buildFrame(nx, ny, nz, frame);
+    const invG = 1 / gSide;
+    for (let a = 0; a < gSide; a++) {
+      for (let b = 0; b < gSide; b++) {
+        const u1 = (a + nextFloat(rng)) * invG;
+        const u2 = (b + nextFloat(rng)) * invG;
+        sampleCosineHemisphere(u1, u2, local);
+        frameToWorld(frame, local[0]!, local[1]!, local[2]!, dir);
+        const dx = dir[0]!, dy = dir[1]!, dz = dir[2]!;
+        if (dz >= 0) continue;
+        below++;
+        const tG = groundCrossingT(gz, oz, dz);
+        if (tG !== Infinity) {
+          if (!isOccluded(bvh, ox, oy, oz, dx, dy, dz, tMin, tG)) {
+            seen += crowns === undefined ? 1 : crownTransmittance(crowns, ox, oy, oz, dx, dy, dz, tG, kc);
+          }
+          continue;
+        }
+        dirs[m * 3] = dx; dirs[m * 3 + 1] = dy; dirs[m * 3 + 2] = dz;
+        const o = m * 6;
+        rays[o] = ox; rays[o + 1] = oy; rays[o + 2] = oz;
+        rays[o + 3] = dx; rays[o + 4] = dy; rays[o + 5] = dz;
+        m++;
+      }
+    }
+  }
+  const flags = scratch.flags;
+  if (m > 0) occludedBatch(bvh, rays, tMin, Infinity, flags, 0, m);
+  let total = 0, j = 0;
+  for (let k = 0; k < K; k++) {
+    const e = patchEnd[k]!;
+    if (e < 0) {
+      result.patchProjectedSr[row + k] = 0;
+      continue;
+    }
+    let sumW = 0, sumV = 0;
+    for (; j < e; j++) {
+      const w = weight[j]!;
+      sumW += w;
+      if (flags[j] === 0) {
+        sumV += crowns === undefined ? w : w * crownTransmittance(crowns, ox, oy, oz, dirs[j * 3]!, dirs[j * 3 + 1]!, dirs[j * 3 + 2]!, Infinity, kc);
+      }
+    }
+    const p = sumW > 0 ? (unobstructed[k]! * sumV) / sumW : 0;
+    result.patchProjectedSr[row + k] = p;
+    total += p;
+  }
+  result.skyViewFactor[r] = total / Math.PI;
+  // Unbounded below-horizon rays, in sample order (rays ending on the plane were summed above;
+  // a receiver has only one kind: either there is a plane below it or there is none).
+  for (j = skyRays; j < m; j++) {
+    if (flags[j] === 0) {
+      seen += crowns === undefined ? 1 : crownTransmittance(crowns, ox, oy, oz, dirs[j * 3]!, dirs[j * 3 + 1]!, dirs[j * 3 + 2]!, Infinity, kc);
+    }
+  }
+  result.groundViewFactor[r] = g0 > 0 ? (below > 0 ? (g0 * seen) / below : g0) : 0;
 }

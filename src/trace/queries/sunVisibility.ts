@@ -10,9 +10,17 @@
  *   (after the offset) is always shaded.
  *
  * Output layout: `Uint8Array`, row-major by receiver, element (i − start)·S + s, 1 = sunlit.
+ *
+ * `batchRays: true` traces the rays of blocks of receivers with one `occludedBatch` call each
+ * (the WebAssembly kernel when loaded). The batch API stores rays in float32, so origins and
+ * directions are rounded to float32 and a ray grazing an edge can flip: results may differ
+ * slightly from the default per-ray (float64) path. Decisions made without tracing (sun down,
+ * facing away, below the ground plane) are the same on both paths.
  */
 import type { BvhData } from '../bvh/build.ts';
 import { isOccluded } from '../bvh/query.ts';
+import { occludedBatch } from '../bvh/batch.ts';
+import { BLOCK_RAYS, ensureRayScratch, scratch } from './rayScratch.ts';
 import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
 import { requireMatchingTriples, requireNonNegative, requireRange, requireTriples } from './inputChecks.ts';
 import { InputError } from '../../physics/errors.ts';
@@ -35,6 +43,8 @@ export interface SunVisibilityInput {
   normalOffsetM?: number | undefined;
   /** Nearest accepted hit [m] (default 1e-4). */
   tMinM?: number | undefined;
+  /** Trace with the batch kernel (float32 rays; may differ slightly from the default path). */
+  batchRays?: boolean | undefined;
 }
 
 /** Number of receivers of a sun-visibility input (after checking it). */
@@ -88,6 +98,10 @@ export function sunVisibility(
   const pts = input.points;
   const nrm = input.normals;
   const empty = bvh.triangleCount === 0;
+  if (input.batchRays === true && !empty) {
+    sunVisibilityBatched(bvh, pts, nrm, offset, tMin, sun, sunCount, gz, start, end, result);
+    return result;
+  }
   for (let i = start; i < end; i++) {
     let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
     let nx = 0, ny = 0, nz = 0;
@@ -112,4 +126,42 @@ export function sunVisibility(
     }
   }
   return result;
+}
+
+/** Traces the rays of `sunVisibility` in blocks of about BLOCK_RAYS with `occludedBatch`. */
+function sunVisibilityBatched(
+  bvh: BvhData, pts: Float32Array | Float64Array, nrm: Float32Array | Float64Array | undefined, offset: number, tMin: number,
+  sun: Float64Array, sunCount: number, gz: number, start: number, end: number, result: Uint8Array,
+): void {
+  ensureRayScratch(BLOCK_RAYS + sunCount);
+  const rays = scratch.rays, target = scratch.target, flags = scratch.flags;
+  let m = 0;
+  for (let i = start; i < end; i++) {
+    let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
+    let nx = 0, ny = 0, nz = 0;
+    if (nrm !== undefined) {
+      nx = nrm[i * 3]!;
+      ny = nrm[i * 3 + 1]!;
+      nz = nrm[i * 3 + 2]!;
+      ox += nx * offset;
+      oy += ny * offset;
+      oz += nz * offset;
+    }
+    const row = (i - start) * sunCount;
+    for (let s = 0; s < sunCount; s++) {
+      const dx = sun[s * 3]!, dy = sun[s * 3 + 1]!, dz = sun[s * 3 + 2]!;
+      result[row + s] = 0;
+      if (dz > 0 && (nrm === undefined || nx * dx + ny * dy + nz * dz > 0) && groundCrossingT(gz, oz, dz) === Infinity) {
+        const o = m * 6;
+        rays[o] = ox; rays[o + 1] = oy; rays[o + 2] = oz;
+        rays[o + 3] = dx; rays[o + 4] = dy; rays[o + 5] = dz;
+        target[m++] = row + s;
+      }
+    }
+    if (m >= BLOCK_RAYS || i === end - 1) {
+      if (m > 0) occludedBatch(bvh, rays, tMin, Infinity, flags, 0, m);
+      for (let j = 0; j < m; j++) result[target[j]!] = flags[j] === 0 ? 1 : 0;
+      m = 0;
+    }
+  }
 }

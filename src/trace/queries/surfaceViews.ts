@@ -35,11 +35,21 @@
  * it separately (a part of otherFraction, not in addition to it). Rows still sum to 1. With no
  * crown on a ray τ = 1 exactly, so the numbers equal those of a run without crowns.
  *
+ * `batchRays: true`: per receiver, all its rays (every direction) are generated first, traced with
+ * one `closestBatch` call (the WebAssembly kernel when loaded) with no far limit, then counted in
+ * the per-ray path's order. A ray whose ground-plane crossing tG is finite counts its hit only when
+ * the hit is nearer than tG; when the float32 hit distance is within 1e-5 (relative) of tG the ray
+ * is re-traced per ray with tMax = tG. The batch API stores rays and hit distances in float32, so a
+ * ray grazing an edge can flip and crown transmittances use the float32 distance: the numbers may
+ * differ slightly from the default (float64, per-ray) path.
+ *
  * Output: CSR-like typed arrays, one row per (receiver, direction), row r = (i − start)·D + d:
  * entries rowStart[r] .. rowStart[r+1]−1 of patchIndex (ascending) and fraction.
  */
 import type { BvhData } from '../bvh/build.ts';
 import { intersectClosest, makeClosestHit } from '../bvh/query.ts';
+import { closestBatch } from '../bvh/batch.ts';
+import { ensureRayScratch, scratch } from './rayScratch.ts';
 import { InputError } from '../../physics/errors.ts';
 import { createRandomState, DEFAULT_SEED, nextFloat, seedRandom } from '../random.ts';
 import { buildFrame, frameToWorld, sampleCosineHemisphere } from '../sampling.ts';
@@ -52,6 +62,8 @@ import type { CrownSet } from '../../geometry/generators/tree.ts';
 
 /** Default samples per receiver direction (a 32 × 32 jittered grid). */
 export const DEFAULT_VIEW_SAMPLES = 1024;
+/** Batch path: hits within this relative distance of the ground crossing are re-traced per ray. */
+const BATCH_NEAR_GROUND = 1e-5;
 /** Substream id of this query in random.ts. */
 export const SURFACE_VIEWS_SUBSTREAM = 2;
 
@@ -88,6 +100,8 @@ export interface SurfaceViewsInput {
   crowns?: CrownSet | undefined;
   /** Extinction per crown [1/m] (crowns.count values). */
   crownExtinctionPerM?: Float64Array | undefined;
+  /** Trace with the batch kernel (float32 rays; may differ slightly from the default path). */
+  batchRays?: boolean | undefined;
 }
 
 export interface SurfaceViewsResult {
@@ -201,6 +215,8 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
   const rng = _rng, dir = _dir, local = _local, frame = _frame, hit = _hit;
   const invSide = 1 / side;
   const invN = 1 / N;
+  const batched = input.batchRays === true && !empty;
+  if (batched) ensureRayScratch(D * N);
   for (let i = start; i < end; i++) {
     seedRandom(rng, seed, streams === undefined ? i : streams[i]!, SURFACE_VIEWS_SUBSTREAM);
     let ox = pts[i * 3]!, oy = pts[i * 3 + 1]!, oz = pts[i * 3 + 2]!;
@@ -209,12 +225,71 @@ export function surfaceViews(bvh: BvhData, input: SurfaceViewsInput, start = 0, 
       oy += nrm![i * 3 + 1]! * offset;
       oz += nrm![i * 3 + 2]! * offset;
     }
+    if (batched) {
+      // Draw every ray of the receiver in the per-ray loop's order, then trace them at once.
+      let m = 0;
+      const rays = scratch.rays, dirs = scratch.dirs, tMaxs = scratch.tMax;
+      for (let d = 0; d < D; d++) {
+        if (mode === 'normal') buildFrame(nrm![i * 3]!, nrm![i * 3 + 1]!, nrm![i * 3 + 2]!, frame);
+        else buildFrame(SIX_DIRECTIONS[d * 3]!, SIX_DIRECTIONS[d * 3 + 1]!, SIX_DIRECTIONS[d * 3 + 2]!, frame);
+        for (let a = 0; a < side; a++) {
+          for (let b = 0; b < side; b++) {
+            const u1 = (a + nextFloat(rng)) * invSide;
+            const u2 = (b + nextFloat(rng)) * invSide;
+            sampleCosineHemisphere(u1, u2, local);
+            frameToWorld(frame, local[0]!, local[1]!, local[2]!, dir);
+            const dx = dir[0]!, dy = dir[1]!, dz = dir[2]!;
+            dirs[m * 3] = dx; dirs[m * 3 + 1] = dy; dirs[m * 3 + 2] = dz;
+            tMaxs[m] = groundCrossingT(gz, oz, dz);
+            const o = m * 6;
+            rays[o] = ox; rays[o + 1] = oy; rays[o + 2] = oz;
+            rays[o + 3] = dx; rays[o + 4] = dy; rays[o + 5] = dz;
+            m++;
+          }
+        }
+      }
+      closestBatch(bvh, rays, tMin, Infinity, scratch.hitT, scratch.hitTri, 0, m);
+    }
     for (let d = 0; d < D; d++) {
       const r = (i - start) * D + d;
       if (mode === 'normal') buildFrame(nrm![i * 3]!, nrm![i * 3 + 1]!, nrm![i * 3 + 2]!, frame);
       else buildFrame(SIX_DIRECTIONS[d * 3]!, SIX_DIRECTIONS[d * 3 + 1]!, SIX_DIRECTIONS[d * 3 + 2]!, frame);
       let nSky = 0, nGround = 0, nOther = 0, nTouched = 0, nCrown = 0;
-      for (let a = 0; a < side; a++) {
+      if (batched) {
+        const dirs = scratch.dirs, tMaxs = scratch.tMax, hitT = scratch.hitT, hitTri = scratch.hitTri;
+        for (let j = d * N, e = j + N; j < e; j++) {
+          const dx = dirs[j * 3]!, dy = dirs[j * 3 + 1]!, dz = dirs[j * 3 + 2]!;
+          const tG = tMaxs[j]!;
+          let tri = hitTri[j]!, tHit = hitT[j]!;
+          if (tri >= 0 && tG !== Infinity && !(tHit < tG * (1 - BATCH_NEAR_GROUND))) {
+            if (tHit > tG * (1 + BATCH_NEAR_GROUND)) tri = -1;
+            else if (intersectClosest(bvh, ox, oy, oz, dx, dy, dz, tMin, tG, hit)) { tri = hit.triangle; tHit = hit.t; }
+            else tri = -1;
+          }
+          const found = tri >= 0;
+          const tau = crowns === undefined ? 1 : crownTransmittance(crowns, ox, oy, oz, dx, dy, dz, found ? tHit : tG, kc);
+          if (crowns !== undefined) nCrown += 1 - tau;
+          if (found) {
+            const p = triPatch[tri]!;
+            if (p < 0) {
+              if (crowns === undefined) nOther++;
+              else nOther += tau;
+            } else {
+              if (counts[p] === 0) touched[nTouched++] = p;
+              if (crowns === undefined) counts[p]!++;
+              else {
+                counts[p] = 1;
+                weights![p]! += tau;
+              }
+            }
+          } else if (tG !== Infinity || dz < 0) {
+            if (crowns === undefined) nGround++;
+            else nGround += tau;
+          } else if (crowns === undefined) nSky++;
+          else nSky += tau;
+        }
+      }
+      for (let a = 0; a < (batched ? 0 : side); a++) {
         for (let b = 0; b < side; b++) {
           const u1 = (a + nextFloat(rng)) * invSide;
           const u2 = (b + nextFloat(rng)) * invSide;

@@ -114,6 +114,35 @@ describe('skyVisibility', () => {
     expect(Array.from(other.patchProjectedSr)).not.toEqual(Array.from(all.patchProjectedSr));
   });
 
+  it('batchRays: canyon floor sky view factor within ±0.01 of cos(atan(2H/W)), close to the per-ray path, range-independent', () => {
+    // source: Oke 1987 / Johnson & Watson 1984, REFERENCE-VALUES §9.1 (floor centre ψ_s = cos(atan(2H/W))).
+    // The batch path rounds rays to float32, so it may differ from the per-ray path by a grazing
+    // ray or so: tolerance 1e-3 on the view factors (one flipped ray of 25 in a patch moves P_k by U_k/25).
+    const { bvh, W, H } = canyon(1);
+    const R = 20;
+    const pts = new Float32Array(R * 3), nrm = new Float32Array(R * 3);
+    for (let i = 0; i < R; i++) {
+      if (i % 2 === 0) { pts.set([0, (i / R - 0.5) * 4 * W, 0], i * 3); nrm.set([0, 0, 1], i * 3); } // floor centre
+      else { pts.set([-W / 2, (i / R - 0.5) * 4 * W, ((i + 0.5) / R) * H], i * 3); nrm.set([1, 0, 0], i * 3); } // west wall
+    }
+    const exact = Math.cos(Math.atan(2));
+    for (const ground of [{ z: 0 }, null]) {
+      const input = { points: pts, normals: nrm, ground, groundSamples: 64 };
+      const ref = skyVisibility(bvh, input);
+      const bat = skyVisibility(bvh, { ...input, batchRays: true });
+      for (let i = 0; i < R; i++) {
+        if (i % 2 === 0) expect(Math.abs(bat.skyViewFactor[i]! - exact)).toBeLessThan(0.01);
+        else expect(bat.groundViewFactor[i]!).toBeGreaterThan(0.05); // a wall sees the floor
+        expect(Math.abs(bat.skyViewFactor[i]! - ref.skyViewFactor[i]!)).toBeLessThan(1e-3);
+        expect(Math.abs(bat.groundViewFactor[i]! - ref.groundViewFactor[i]!)).toBeLessThan(1e-3);
+      }
+      const part = skyVisibility(bvh, { ...input, batchRays: true }, 7, 16);
+      const K = bat.patchCount;
+      expect(Array.from(part.patchProjectedSr)).toEqual(Array.from(bat.patchProjectedSr.subarray(7 * K, 16 * K)));
+      expect(Array.from(part.groundViewFactor)).toEqual(Array.from(bat.groundViewFactor.subarray(7, 16)));
+    }
+  });
+
   it('a point below the ground plane sees no sky', () => {
     const r = skyVisibility(farBox(), { points: Float32Array.of(0, 0, -1), ground: { z: 0 }, samplesPerPatch: 1 });
     expect(r.skyViewFactor[0]).toBe(0);

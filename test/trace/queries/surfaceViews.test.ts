@@ -131,6 +131,77 @@ describe('surfaceViews', () => {
     }
   });
 
+  it('batchRays: a paving quad on the ground plane is counted as on the per-ray path (hits at the plane are re-traced)', () => {
+    // A patch lying exactly on the plane z = 0: every downward ray meets it at t = tG up to rounding,
+    // the case where the batch path's float32 hit distance cannot decide and re-traces per ray.
+    const m = new MeshBuilder();
+    m.quad([-50, -50, 0], [50, -50, 0], [50, 50, 0], [-50, 50, 0], 0);
+    m.box(5, -3, 0, 9, 3, 6, 1);
+    const bvh = buildBvh(m.positions(), m.indices());
+    const R = 8;
+    const pts = new Float32Array(R * 3);
+    for (let i = 0; i < R; i++) pts.set([i * 0.7 - 2, i * 0.3 - 1, 0.3 + 0.2 * i], i * 3);
+    const input = { points: pts, trianglePatch: m.trianglePatch(), patchCount: 2, ground: { z: 0 }, samplesPerDirection: 256 };
+    const ref = surfaceViews(bvh, input);
+    const bat = surfaceViews(bvh, { ...input, batchRays: true });
+    let onPaving = 0;
+    for (let i = 0; i < R; i++) {
+      const down = i * 6 + 1;
+      expect(rowPatchFraction(bat, down, 0)).toBe(rowPatchFraction(ref, down, 0));
+      expect(bat.groundFraction[down]).toBe(ref.groundFraction[down]);
+      onPaving += rowPatchFraction(bat, down, 0);
+    }
+    expect(onPaving).toBeGreaterThan(0); // some downward rays do land on the paving
+    for (let row = 0; row < R * 6; row++) {
+      expect(Math.abs(rowSum(bat, row) - 1)).toBeLessThan(1e-5);
+      expect(Math.abs(bat.skyFraction[row]! - ref.skyFraction[row]!)).toBeLessThan(2 / 256); // float32 rays: a grazing ray may flip
+      expect(Math.abs(rowPatchFraction(bat, row, 1) - rowPatchFraction(ref, row, 1))).toBeLessThan(2 / 256);
+    }
+    expect(rowPatchFraction(bat, 2, 1)).toBeGreaterThan(0.05); // the east-facing view of receiver 0 sees the box
+  });
+
+  it('batchRays: fractions close to the per-ray path on a random scene, rows sum to 1, range-independent', () => {
+    const rnd = testRandom(778);
+    const m = new MeshBuilder();
+    let tag = 0;
+    for (let b = 0; b < 25; b++) {
+      const x = rnd() * 40, y = rnd() * 40, w = 2 + rnd() * 6, h = 3 + rnd() * 15;
+      m.box(x, y, 0, x + w, y + w, h, b % 5 === 4 ? -1 : tag++);
+    }
+    const bvh = buildBvh(m.positions(), m.indices());
+    const R = 24;
+    const pts = new Float64Array(R * 3), nrm = new Float64Array(R * 3);
+    for (let i = 0; i < R; i++) {
+      pts.set([rnd() * 45, rnd() * 45, 0.5 + rnd() * 3], i * 3);
+      const a = rnd() * 2 * Math.PI, c = rnd() * 2 - 1, q = Math.sqrt(1 - c * c);
+      nrm.set([q * Math.cos(a), q * Math.sin(a), c], i * 3);
+    }
+    for (const directions of ['normal', 'six'] as const) {
+      for (const ground of [{ z: 0 }, null]) {
+        const input = { points: pts, normals: nrm, directions, trianglePatch: m.trianglePatch(), patchCount: tag, ground, samplesPerDirection: 256 };
+        const ref = surfaceViews(bvh, input);
+        const bat = surfaceViews(bvh, { ...input, batchRays: true });
+        const rows = R * bat.directionsPerReceiver;
+        let seen = 0;
+        for (let row = 0; row < rows; row++) {
+          expect(Math.abs(rowSum(bat, row) - 1)).toBeLessThan(1e-5);
+          expect(Math.abs(bat.skyFraction[row]! - ref.skyFraction[row]!)).toBeLessThan(2 / 256);
+          expect(Math.abs(bat.groundFraction[row]! - ref.groundFraction[row]!)).toBeLessThan(2 / 256);
+          expect(Math.abs(bat.otherFraction[row]! - ref.otherFraction[row]!)).toBeLessThan(2 / 256);
+          for (let p = 0; p < tag; p++) expect(Math.abs(rowPatchFraction(bat, row, p) - rowPatchFraction(ref, row, p))).toBeLessThan(2 / 256);
+          seen += bat.rowStart[row + 1]! - bat.rowStart[row]!;
+        }
+        expect(seen).toBeGreaterThan(rows / 4);
+        const part = surfaceViews(bvh, { ...input, batchRays: true }, 5, 17);
+        const D = bat.directionsPerReceiver;
+        const off = bat.rowStart[5 * D]!;
+        expect(Array.from(part.patchIndex)).toEqual(Array.from(bat.patchIndex.subarray(off, bat.rowStart[17 * D])));
+        expect(Array.from(part.fraction)).toEqual(Array.from(bat.fraction.subarray(off, bat.rowStart[17 * D])));
+        expect(Array.from(part.groundFraction)).toEqual(Array.from(bat.groundFraction.subarray(5 * D, 17 * D)));
+      }
+    }
+  });
+
   it('checks its arguments', () => {
     const m = new MeshBuilder();
     m.disc(0, 0, 1, 1, 8, 0);
