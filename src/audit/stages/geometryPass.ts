@@ -32,6 +32,12 @@ import { zoneOffsetMinutes } from '../../physics/time.ts';
 import type { SamplingSpec } from '../project.ts';
 
 export const SKY_LEVEL = 1;
+/**
+ * Trace the audit's rays through the batch kernel (WebAssembly SIMD where available): the same rays
+ * in the same order, stored as float32 — about 1.7× faster; a ray grazing an edge may fall on the
+ * other side than with the float64 per-ray path (measured: none on the demo).
+ */
+export const BATCH_RAYS = true;
 
 export interface GeometryData {
   /** Per step: index of its sun direction, or −1 when the sun is down. */
@@ -178,8 +184,8 @@ export async function geometryPass(model: PreparedModel, steps: Steps, sampling:
     patchSun = Uint8Array.from(patchSunTransmittance, (x) => (x > 0 ? 1 : 0));
     sensorSun = Uint8Array.from(sensorSunTransmittance, (x) => (x > 0 ? 1 : 0));
   } else {
-    patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground }, run('sun on surfaces', pr))) : new Uint8Array(0);
-    sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground }, run('sun on sensors', sr))) : new Uint8Array(0);
+    patchSun = S > 0 && nP > 0 ? await time('sun on surfaces', () => tracer.sunVisibility(bvh, { points: patches.centroids, normals: patches.normals, sunDirections: directions, ground, batchRays: BATCH_RAYS }, run('sun on surfaces', pr))) : new Uint8Array(0);
+    sensorSun = S > 0 && nS > 0 ? await time('sun on sensors', () => tracer.sunVisibility(bvh, { points: sensors, sunDirections: directions, ground, batchRays: BATCH_RAYS }, run('sun on sensors', sr))) : new Uint8Array(0);
   }
   const inputs = geometryQueryInputs(model, steps, sampling, siteTimeZone, opts.patchStreams);
   const patchSky = await time('sky seen by surfaces', () => tracer.skyVisibility(bvh, inputs.patchSky, run('sky seen by surfaces', pr)));
@@ -266,10 +272,10 @@ export function geometryQueryInputs(model: PreparedModel, steps: Steps, sampling
   const streams = patchStreams ? { streamIndex: patchStreams } : {};
   const P = patches.count;
   return {
-    patchSky: { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed, ...withCrowns, ...streams },
-    sensorSky: { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1, ...withCrowns },
-    patchViews: { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3, ...withCrowns, ...streams },
-    sensorViews: { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4, ...withCrowns },
+    patchSky: { points: patches.centroids, normals: patches.normals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed, batchRays: BATCH_RAYS, ...withCrowns, ...streams },
+    sensorSky: { points: sixPoints, normals: sixNormals, skyLevel: SKY_LEVEL, samplesPerPatch: sampling.skyRaysPerPatch, groundSamples: 1, ground, seed: seed + 1, batchRays: BATCH_RAYS, ...withCrowns },
+    patchViews: { points: patches.centroids, normals: patches.normals, directions: 'normal', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 3, batchRays: BATCH_RAYS, ...withCrowns, ...streams },
+    sensorViews: { points: sensors, directions: 'six', trianglePatch, patchCount: P, samplesPerDirection: sampling.viewRays, ground, seed: seed + 4, batchRays: BATCH_RAYS, ...withCrowns },
   };
 }
 
