@@ -36,6 +36,8 @@ async function text(selector: string): Promise<string> {
 type LongTask = { start: number; ms: number };
 const longTasks = (): Promise<LongTask[]> => page.evaluate(() => (window as unknown as { sunfacetLongTasks: LongTask[] }).sunfacetLongTasks);
 const longest = (xs: LongTask[]) => xs.reduce((m, x) => Math.max(m, x.ms), 0);
+/** The long tasks as "start:duration" in ms, for the log. */
+const listed = (xs: LongTask[]) => xs.map((x) => `${x.start.toFixed(0)}:${x.ms.toFixed(0)}`).join(' ');
 
 async function waitForRunDone(timeoutMs = 90_000): Promise<void> {
   await page.getByTestId('run-done').waitFor({ state: 'visible', timeout: timeoutMs });
@@ -102,7 +104,7 @@ describe('viewer (built app in headless Chromium)', () => {
 
     await waitForRunDone();
     const startTasks = await longTasks();
-    console.log(`start-up long tasks (page load to the first results shown): ${startTasks.length}, longest ${longest(startTasks).toFixed(0)} ms`);
+    console.log(`start-up long tasks (page load to the first results shown): ${startTasks.length}, longest ${longest(startTasks).toFixed(0)} ms (${listed(startTasks)})`);
     // Demand rendering: nothing draws while nothing changes.
     const idle0 = await page.evaluate(() => (window as { sunfacetFramesDrawn?: number }).sunfacetFramesDrawn ?? 0);
     await page.waitForTimeout(1000);
@@ -289,7 +291,7 @@ describe('viewer (built app in headless Chromium)', () => {
     await waitForRunDone(60_000);
     await page.waitForTimeout(300);
     const yearTasks = (await longTasks()).filter((x) => x.start >= y0);
-    console.log(`a year's run: long tasks ${yearTasks.length}, longest ${longest(yearTasks).toFixed(0)} ms`);
+    console.log(`a year's run: long tasks ${yearTasks.length}, longest ${longest(yearTasks).toFixed(0)} ms (run started at ${y0.toFixed(0)} ms; ${listed(yearTasks)})`);
     const day = page.getByTestId('day-slider');
     await day.waitFor({ state: 'visible' });
     expect(await day.getAttribute('max')).toBe('364');
@@ -326,7 +328,7 @@ describe('viewer (built app in headless Chromium)', () => {
       expect(await text('#h-model + p')).toMatch(/(19\d|200)\s?\d{3} triangles/);
       await page.waitForTimeout(500);
       const openTasks = (await longTasks()).filter((x) => x.start >= o0);
-      console.log(`opening the 200 k-triangle OBJ: long tasks ${openTasks.length}, longest ${longest(openTasks).toFixed(0)} ms`);
+      console.log(`opening the 200 k-triangle OBJ: long tasks ${openTasks.length}, longest ${longest(openTasks).toFixed(0)} ms (${listed(openTasks)})`);
       const box = (await page.locator('.view canvas').boundingBox())!;
       const cx = box.x + box.width / 2, cy = box.y + box.height / 2;
       const frames0 = await page.evaluate(() => (window as { sunfacetFramesDrawn?: number }).sunfacetFramesDrawn ?? 0);

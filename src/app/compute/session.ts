@@ -5,6 +5,7 @@
 import { AuditClient, type RunHandle } from './auditClient.ts';
 import type { AuditJob } from './auditApi.ts';
 import { heavy } from '../state/heavy.ts';
+import { whenModelShown } from '../scene/framesShown.ts';
 import { initialRun, useViewer } from '../state/store.ts';
 import { checkDoc, parseProjectDoc, setWeatherFile, type ProjectDoc } from '../state/projectDoc.ts';
 import { designNames } from '../state/designDoc.ts';
@@ -88,6 +89,9 @@ async function showModel(bytes: Uint8Array, fileName: string, doc: ProjectDoc, s
   if (view.warnings.length > 0) notify('info', `${fileName}: ${view.warnings.slice(0, 3).join('; ')}${view.warnings.length > 3 ? ` (+${view.warnings.length - 3} more)` : ''}`);
   refreshSunPath();
 }
+
+/** Longest wait for the model's first frame before a session's first audit starts anyway [ms]. */
+const FIRST_FRAME_WAIT_MS = 3000;
 
 export async function loadDemo(autoRun = true): Promise<void> {
   const s = useViewer.getState();
@@ -242,6 +246,20 @@ export function startRun(): void {
   cancelRun();
   const now = Date.now();
   s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now, kind: 'single' } });
+  // The trace workers take every core: a model just opened is put on screen first (framesShown.ts).
+  const token = ++startToken;
+  const version = s.modelVersion;
+  void whenModelShown(version, FIRST_FRAME_WAIT_MS).then(() => {
+    const st = useViewer.getState();
+    if (token !== startToken || st.run.status !== 'running' || st.run.kind !== 'single' || st.modelVersion !== version || current) return;
+    beginRun(doc);
+  });
+}
+
+/** Increased by every start (and cancel), so a start that waited for the first frame knows it is still wanted. */
+let startToken = 0;
+
+function beginRun(doc: ProjectDoc): void {
   const handle = client.run(job(doc), (p) => {
     const r = useViewer.getState().run;
     if (r.status !== 'running' || current !== handle) return;
@@ -404,7 +422,13 @@ export async function comparePair(option: string, reference: string): Promise<vo
 }
 
 export function cancelRun(): void {
-  if (!current) return;
+  startToken++;
+  if (!current) {
+    // A run still waiting for its model's first frame (startRun) is dropped.
+    const st = useViewer.getState();
+    if (st.run.status === 'running' && st.run.stage === 'starting' && st.run.kind === 'single') st.set({ run: { ...st.run, status: 'cancelled', message: 'Cancelled.' } });
+    return;
+  }
   const h = current;
   current = null;
   h.cancel();

@@ -4,6 +4,7 @@ import type { ThreeEvent } from '@react-three/fiber';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
 import { addDraftPoint } from './pick.ts';
+import { viewQuality } from './renderer.ts';
 
 /** Drawn this far below the ground level so the audit's ground cells show on top [m]. */
 const SINK_M = 0.05;
@@ -19,13 +20,19 @@ export function GroundPlane() {
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [modelVersion]);
   const z = (groundZ ?? box.minZ) - SINK_M;
+  // The ground fills much of the view: on a software renderer it takes the model's cheaper shading.
+  const lambert = viewQuality(heavy.model).material === 'lambert';
   const onClick = (e: ThreeEvent<MouseEvent>) => {
     if (addDraftPoint(e, groundZ ?? box.minZ)) return;
   };
   return (
     <mesh position={[box.cx, box.cy, z]} receiveShadow onClick={onClick} name="ground-plane">
       <planeGeometry args={[box.size, box.size]} />
-      <meshStandardMaterial color="#c9c6bd" roughness={1} metalness={0} polygonOffset polygonOffsetFactor={4} polygonOffsetUnits={4} />
+      {lambert ? (
+        <meshLambertMaterial key="lambert" color="#c9c6bd" polygonOffset polygonOffsetFactor={4} polygonOffsetUnits={4} />
+      ) : (
+        <meshStandardMaterial key="standard" color="#c9c6bd" roughness={1} metalness={0} polygonOffset polygonOffsetFactor={4} polygonOffsetUnits={4} />
+      )}
     </mesh>
   );
 }

@@ -4,10 +4,9 @@ import { useThree, type ThreeEvent } from '@react-three/fiber';
 import { BufferAttribute, BufferGeometry, DoubleSide } from 'three';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
-import { modelColours, presetPerSurface, unindexedPositions } from './surfaceTones.ts';
-import { srgbToLinearInPlace } from './colourAttr.ts';
+import { flatNormals, modelColours, presetPerSurface, unindexedPositions } from './surfaceTones.ts';
 import { addDraftPoint } from './pick.ts';
-import { modelTriangles, renderQuality } from './quality.ts';
+import { viewQuality } from './renderer.ts';
 
 export function SiteModel() {
   const modelVersion = useViewer((s) => s.modelVersion);
@@ -21,9 +20,11 @@ export function SiteModel() {
     const m = heavy.model;
     if (!m || modelVersion === 0) return null;
     const g = new BufferGeometry();
-    g.setAttribute('position', new BufferAttribute(unindexedPositions(m), 3));
+    const positions = unindexedPositions(m);
+    g.setAttribute('position', new BufferAttribute(positions, 3));
     g.setAttribute('color', new BufferAttribute(new Float32Array((m.indices.length / 3) * 9), 3));
-    g.computeVertexNormals();
+    // The same flat normals as computeVertexNormals on non-indexed triangles, in one tight loop.
+    g.setAttribute('normal', new BufferAttribute(flatNormals(positions), 3));
     g.computeBoundingSphere();
     return g;
   }, [modelVersion]);
@@ -34,7 +35,7 @@ export function SiteModel() {
     const m = heavy.model;
     if (!geometry || !m || !doc) return;
     const per = presetPerSurface(doc, m);
-    const colours = srgbToLinearInPlace(modelColours(m, per, viewMode === 'materials' ? 'materials' : 'model', selected));
+    const colours = modelColours(m, per, viewMode === 'materials' ? 'materials' : 'model', selected, true);
     const attr = geometry.getAttribute('color') as BufferAttribute;
     (attr.array as Float32Array).set(colours);
     attr.needsUpdate = true;
@@ -42,7 +43,7 @@ export function SiteModel() {
   }, [geometry, doc, viewMode, selected, invalidate]);
 
   if (!geometry) return null;
-  const q = renderQuality(modelTriangles(heavy.model));
+  const q = viewQuality(heavy.model);
 
   const onClick = (e: ThreeEvent<MouseEvent>) => {
     if (addDraftPoint(e)) return;

@@ -5,7 +5,7 @@ import { Object3D } from 'three';
 import { useViewer } from '../state/store.ts';
 import { heavy } from '../state/heavy.ts';
 import { engineGroupRotationRad, sunDirection } from '../compute/frames.ts';
-import { modelTriangles, renderQuality } from './quality.ts';
+import { viewQuality } from './renderer.ts';
 
 /** The sun (altitude, azimuth) at the step shown: from the results, else from the sun path. */
 export function useSunAtStep(): { altitudeDeg: number; azimuthDeg: number; time: string } | null {
@@ -32,7 +32,7 @@ export function SunLight() {
     const b = m?.bounds ?? [0, 0, 0, 10, 10, 10];
     const c: [number, number, number] = [(b[0] + b[3]) / 2, (b[1] + b[4]) / 2, (b[2] + b[5]) / 2];
     const r = Math.max(10, Math.hypot(b[3] - b[0], b[4] - b[1], b[5] - b[2]) / 2);
-    return { c, r, quality: renderQuality(modelTriangles(m)) };
+    return { c, r, quality: viewQuality(m) };
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [modelVersion]);
 
@@ -65,7 +65,8 @@ export function SunLight() {
         castShadow={up && frame.quality.shadows}
         shadow-mapSize={[frame.quality.shadowMapSizePx, frame.quality.shadowMapSizePx]}
         shadow-bias={-0.0004}
-        shadow-normalBias={0.03}
+        // Tuned at 2048 px; a coarser map needs a proportionally larger offset against acne.
+        shadow-normalBias={(0.03 * 2048) / frame.quality.shadowMapSizePx}
         shadow-camera-left={-frame.r * 1.3}
         shadow-camera-right={frame.r * 1.3}
         shadow-camera-top={frame.r * 1.3}

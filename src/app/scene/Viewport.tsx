@@ -18,7 +18,8 @@ import { EngineFrame } from './EngineFrame.tsx';
 import { SunPathDome } from './SunPathDome.tsx';
 import { DeviceModels } from './DeviceModels.tsx';
 import { ReflectionPaths } from './ReflectionPaths.tsx';
-import { modelTriangles, renderQuality } from './quality.ts';
+import { viewQuality } from './renderer.ts';
+import { WarmFrames } from './WarmFrames.tsx';
 
 /** Frames the camera on the model whenever a new model is shown. */
 function CameraFit({ controls }: { controls: React.RefObject<OrbitControlsImpl | null> }) {
@@ -78,7 +79,7 @@ function PixelRatio({ controls }: { controls: React.RefObject<OrbitControlsImpl 
   const setDpr = useThree((s) => s.setDpr);
   const invalidate = useThree((s) => s.invalidate);
   useEffect(() => {
-    const q = renderQuality(modelTriangles(heavy.model));
+    const q = viewQuality(heavy.model);
     const device = typeof window !== 'undefined' ? window.devicePixelRatio || 1 : 1;
     const still = Math.min(device, q.maxDpr);
     const moving = Math.min(still, q.movingDpr);
@@ -114,24 +115,26 @@ export function Viewport() {
   const controls = useRef<OrbitControlsImpl | null>(null);
   const set = useViewer((s) => s.set);
   useViewer((s) => s.modelVersion);
-  // Multisampling is decided when the WebGL context is made: a large model gets a fresh canvas
-  // without it (on a software renderer it roughly halves the frame time).
-  const large = renderQuality(modelTriangles(heavy.model)).large;
+  // Multisampling is decided when the WebGL context is made: a large model (or a software
+  // renderer from the start) gets a canvas without it (on a software renderer that roughly halves
+  // the frame time, which the page waits for).
+  const { antialias } = viewQuality(heavy.model);
   return (
     <Canvas
-      key={large ? 'large-model' : 'full-quality'}
+      key={antialias ? 'multisampled' : 'plain'}
       frameloop="demand"
-      shadows
+      shadows="percentage"
       dpr={[1, 2]}
       camera={{ up: [0, 0, 1], position: [-30, -60, 40], fov: 40, near: 0.1, far: 3000 }}
       onPointerMissed={() => set({ picked: null })}
-      gl={{ antialias: !large }}
+      gl={{ antialias }}
     >
       <color attach="background" args={['#e6e9ec']} />
       <OrbitControls ref={controls} makeDefault enableDamping={false} maxPolarAngle={Math.PI * 0.495} />
       <CameraFit controls={controls} />
       <PixelRatio controls={controls} />
       <FrameCounter />
+      <WarmFrames />
       <KeyboardZoom controls={controls} />
       <SunLight />
       <GroundPlane />

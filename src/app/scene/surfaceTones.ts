@@ -32,20 +32,58 @@ export function presetsInUse(perSurface: readonly string[]): string[] {
   return [...new Set(perSurface)];
 }
 
-/** Per-vertex colours (3 vertices per triangle, non-indexed) for the model view or the assignments view. */
-export function modelColours(model: ModelView, perSurface: readonly string[], mode: 'model' | 'materials', selected: number | null): Float32Array {
+/**
+ * Per-vertex colours (3 vertices per triangle, non-indexed) for the model view or the assignments
+ * view; sRGB, or linear (what three.js reads from a colour attribute) with `linear`. Each
+ * surface's colour is worked out once, then copied to its triangles.
+ */
+export function modelColours(model: ModelView, perSurface: readonly string[], mode: 'model' | 'materials', selected: number | null, linear = false): Float32Array {
   const used = presetsInUse(perSurface);
-  const tri = model.indices.length / 3;
-  const out = new Float32Array(tri * 9);
-  for (let t = 0; t < tri; t++) {
-    const s = model.surfaceIds[t]!;
+  const nSurf = model.surfaceNames.length;
+  const surfRgb = new Float32Array(Math.max(1, nSurf + 1) * 3);
+  for (let s = 0; s <= nSurf; s++) {
     const p = perSurface[s] ?? '';
     let c = mode === 'materials' ? categoryColour(used.indexOf(p)) : neutralTone(p);
     if (selected === s) c = [Math.min(1, c[0] * 0.5 + 0.5), Math.min(1, c[1] * 0.5 + 0.45), Math.min(1, c[2] * 0.3 + 0.1)];
+    for (let k = 0; k < 3; k++) surfRgb[s * 3 + k] = linear ? srgbChannelToLinear(c[k]!) : c[k]!;
+  }
+  const tri = model.indices.length / 3;
+  const out = new Float32Array(tri * 9);
+  for (let t = 0; t < tri; t++) {
+    // Surface ids past the names (none expected) take the '' preset's colour, as before.
+    const s = Math.min(model.surfaceIds[t]!, nSurf) * 3;
+    const r = surfRgb[s]!, g = surfRgb[s + 1]!, b = surfRgb[s + 2]!;
     for (let k = 0; k < 3; k++) {
-      out[t * 9 + k * 3] = c[0];
-      out[t * 9 + k * 3 + 1] = c[1];
-      out[t * 9 + k * 3 + 2] = c[2];
+      out[t * 9 + k * 3] = r;
+      out[t * 9 + k * 3 + 1] = g;
+      out[t * 9 + k * 3 + 2] = b;
+    }
+  }
+  return out;
+}
+
+/** sRGB → linear for one channel (IEC 61966-2-1 transfer function). */
+function srgbChannelToLinear(c: number): number {
+  return c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4;
+}
+
+/** Flat normals (one per triangle, on its 3 vertices) of non-indexed positions (9 floats per triangle). */
+export function flatNormals(positions: Float32Array): Float32Array {
+  const out = new Float32Array(positions.length);
+  for (let i = 0; i + 8 < positions.length; i += 9) {
+    const ax = positions[i + 3]! - positions[i]!, ay = positions[i + 4]! - positions[i + 1]!, az = positions[i + 5]! - positions[i + 2]!;
+    const bx = positions[i + 6]! - positions[i]!, by = positions[i + 7]! - positions[i + 1]!, bz = positions[i + 8]! - positions[i + 2]!;
+    let nx = ay * bz - az * by, ny = az * bx - ax * bz, nz = ax * by - ay * bx;
+    const len = Math.hypot(nx, ny, nz);
+    if (len > 0) {
+      nx /= len;
+      ny /= len;
+      nz /= len;
+    }
+    for (let k = 0; k < 9; k += 3) {
+      out[i + k] = nx;
+      out[i + k + 1] = ny;
+      out[i + k + 2] = nz;
     }
   }
   return out;
