@@ -71,8 +71,11 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   let geometry: GeometryData;
   const tGeo = performance.now();
   try {
-    const patchStreams = designPatchStreams(model, loaded.project.devices);
-    geometry = reuse?.geometry ?? (await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}), ...(patchStreams ? { patchStreams } : {}) }, loaded.project.site.timeZone));
+    if (reuse?.geometry) geometry = reuse.geometry;
+    else {
+      const patchStreams = designPatchStreams(model, loaded.project.devices);
+      geometry = await geometryPass(model, steps, loaded.project.sampling, tracer, { onStage: progress, ...(opts.signal ? { signal: opts.signal } : {}), ...(patchStreams ? { patchStreams } : {}) }, loaded.project.site.timeZone);
+    }
   } finally {
     if (!opts.tracer) await tracer.close();
   }
@@ -82,7 +85,7 @@ export async function runAuditWithState(loaded: LoadedProject, opts: AuditOption
   const glare = glareStage(model, steps, geometry, loaded.project.viewpoints ?? []);
   abort();
   const tHeat = performance.now();
-    const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total), glare.sensorBeamTermWm2);
+  const ts = runTimeSteps(model, steps, geometry, (done, total) => progress('surface heat balance and comfort', done, total), glare.sensorBeamTermWm2);
   const tEnd = performance.now();
   const results = assembleResults(loaded, model, steps, geometry, ts, glare);
   const record: RunRecord = {
