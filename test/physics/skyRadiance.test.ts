@@ -1,3 +1,4 @@
+import { PVLIB_SCALAR, FACADE_SKY } from '../fixtures/perez/cases.ts';
 import { cosIncidenceFromAngles } from '../../src/physics/irradiance.ts';
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
@@ -77,27 +78,7 @@ function patchFormWm2(sky: SkySubdivision, c: PerezTiltInputs, steps: number): n
   return skyIrradianceFromPatchesWm2(radiance, weights, r.circumsolarNormalWm2, ci, true);
 }
 
-// source: pvlib-python @6382338 tests/test_irradiance.py test_perez_scalar (REFERENCE-VALUES §5.1)
-const PVLIB_SCALAR: PerezTiltInputs = {
-  surfaceTiltDeg: 40,
-  surfaceAzimuthDeg: 180,
-  dhiWm2: 118.45831879,
-  dniWm2: 939.95469881,
-  dniExtraWm2: 1321.1655834833093,
-  solarZenithDeg: 10.56413562,
-  solarAzimuthDeg: 144.76567754,
-  relativeAirMass: 1.01688136,
-};
-// source: REFERENCE-VALUES §5.1 [lib-run] vertical façade cases
-const FACADE_SKY = {
-  surfaceTiltDeg: 90,
-  dhiWm2: 100,
-  dniWm2: 800,
-  dniExtraWm2: 1367,
-  solarZenithDeg: 40,
-  solarAzimuthDeg: 180,
-  relativeAirMass: 1.30422,
-} as const;
+// PVLIB_SCALAR and FACADE_SKY: published cases, with their sources, in test/fixtures/perez/cases.ts
 // source: pvlib tests/test_irradiance.py test_perez_negative_horizon row 2 (REFERENCE-VALUES §5.1)
 const NEGATIVE_HORIZON: PerezTiltInputs = {
   surfaceTiltDeg: 34,

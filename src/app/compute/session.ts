@@ -231,19 +231,27 @@ export function defaultDoc(): ProjectDoc {
   };
 }
 
-export function startRun(): void {
+/** The document to run, after the checks a run needs (a model, a valid project); cancels a running audit. */
+function runnableDoc(): { s: ReturnType<typeof useViewer.getState>; doc: NonNullable<ReturnType<typeof useViewer.getState>['doc']> } | null {
   const s = useViewer.getState();
   const doc = s.doc;
   if (!doc || !heavy.modelBytes) {
     notify('error', 'Open a model first.');
-    return;
+    return null;
   }
   const check = checkDoc(doc);
   if (!check.ok) {
     notify('error', check.message);
-    return;
+    return null;
   }
   cancelRun();
+  return { s, doc };
+}
+
+export function startRun(): void {
+  const ready = runnableDoc();
+  if (!ready) return;
+  const { s, doc } = ready;
   const now = Date.now();
   s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now, kind: 'single' } });
   // The trace workers take every core: a model just opened is put on screen first (framesShown.ts).
@@ -317,18 +325,9 @@ function beginRun(doc: ProjectDoc): void {
  * and the first option is compared with it.
  */
 export function startDesignsRun(): void {
-  const s = useViewer.getState();
-  const doc = s.doc;
-  if (!doc || !heavy.modelBytes) {
-    notify('error', 'Open a model first.');
-    return;
-  }
-  const check = checkDoc(doc);
-  if (!check.ok) {
-    notify('error', check.message);
-    return;
-  }
-  cancelRun();
+  const ready = runnableDoc();
+  if (!ready) return;
+  const { s, doc } = ready;
   const now = Date.now();
   const names = designNames(doc);
   s.set({ run: { ...initialRun, status: 'running', stage: 'starting', startedMs: now, stageStartedMs: now, kind: 'designs', design: 0, designs: names.length } });

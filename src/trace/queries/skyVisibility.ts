@@ -51,13 +51,14 @@
  * traced per ray on both paths.
  */
 import type { BvhData } from '../bvh/build.ts';
+import type { SampledQueryOptions } from './sampledQueryOptions.ts';
 import { isOccluded } from '../bvh/query.ts';
 import { occludedBatch } from '../bvh/batch.ts';
 import { ensureRayScratch, scratch } from './rayScratch.ts';
 import { skySubdivision, type SkySubdivision } from '../../physics/skySubdivision.ts';
 import { createRandomState, DEFAULT_SEED, nextFloat, seedRandom } from '../random.ts';
 import { buildFrame, frameToWorld, projectedSolidAngleOfCell, sampleCosineHemisphere, sampleSkyCell } from '../sampling.ts';
-import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
+import { groundCrossingT, groundZOf } from './groundPlane.ts';
 import { requireMatchingTriples, requireNonNegative, requireRange, requireSquareCount, requireTriples } from './inputChecks.ts';
 import { DEFAULT_NORMAL_OFFSET_M, DEFAULT_T_MIN_M } from './sunVisibility.ts';
 import { crownTransmittance } from '../crowns.ts';
@@ -71,7 +72,7 @@ export const DEFAULT_GROUND_SAMPLES = 1024;
 /** Substream id of this query in random.ts, so it never shares numbers with another query. */
 export const SKY_VISIBILITY_SUBSTREAM = 1;
 
-export interface SkyVisibilityInput {
+export interface SkyVisibilityInput extends SampledQueryOptions {
   /** xyz per receiver [m]. */
   points: Float32Array | Float64Array;
   /** Optional unit normal per receiver; absent = upward horizontal receivers (sensors). */
@@ -82,21 +83,6 @@ export interface SkyVisibilityInput {
   samplesPerPatch?: number | undefined;
   /** Samples for the below-horizon view of tilted receivers, a perfect square (default 1024). */
   groundSamples?: number | undefined;
-  ground?: GroundPlaneInput | null | undefined;
-  /** Generator seed (default random.ts DEFAULT_SEED). */
-  seed?: number | undefined;
-  /** Origin offset along the normal [m] (default 1e-3; only with normals). */
-  normalOffsetM?: number | undefined;
-  /** Nearest accepted hit [m] (default 1e-4). */
-  tMinM?: number | undefined;
-  /** Optional random stream per receiver (default: the receiver's index). */
-  streamIndex?: Uint32Array | undefined;
-  /** Optional tree crowns that attenuate the sky seen (with `crownExtinctionPerM`). */
-  crowns?: CrownSet | undefined;
-  /** Extinction per crown [1/m] (crowns.count values). */
-  crownExtinctionPerM?: Float64Array | undefined;
-  /** Trace with the batch kernel (float32 rays; may differ slightly from the default path). */
-  batchRays?: boolean | undefined;
 }
 
 /** Checks the optional stream list and crown inputs shared by skyVisibility and surfaceViews. */

@@ -47,18 +47,18 @@
  * entries rowStart[r] .. rowStart[r+1]−1 of patchIndex (ascending) and fraction.
  */
 import type { BvhData } from '../bvh/build.ts';
+import type { SampledQueryOptions } from './sampledQueryOptions.ts';
 import { intersectClosest, makeClosestHit } from '../bvh/query.ts';
 import { closestBatch } from '../bvh/batch.ts';
 import { ensureRayScratch, scratch } from './rayScratch.ts';
 import { InputError } from '../../physics/errors.ts';
 import { createRandomState, DEFAULT_SEED, nextFloat, seedRandom } from '../random.ts';
 import { buildFrame, frameToWorld, sampleCosineHemisphere } from '../sampling.ts';
-import { groundCrossingT, groundZOf, type GroundPlaneInput } from './groundPlane.ts';
+import { groundCrossingT, groundZOf } from './groundPlane.ts';
 import { requireMatchingTriples, requireNonNegative, requireRange, requireSquareCount, requireTriples } from './inputChecks.ts';
 import { DEFAULT_NORMAL_OFFSET_M, DEFAULT_T_MIN_M } from './sunVisibility.ts';
 import { checkStreamsAndCrowns } from './skyVisibility.ts';
 import { crownTransmittance } from '../crowns.ts';
-import type { CrownSet } from '../../geometry/generators/tree.ts';
 
 /** Default samples per receiver direction (a 32 × 32 jittered grid). */
 export const DEFAULT_VIEW_SAMPLES = 1024;
@@ -74,7 +74,7 @@ export const SIX_DIRECTION_NAMES = ['up', 'down', 'east', 'south', 'west', 'nort
 
 export type ViewDirections = 'normal' | 'six';
 
-export interface SurfaceViewsInput {
+export interface SurfaceViewsInput extends SampledQueryOptions {
   /** xyz per receiver [m]. */
   points: Float32Array | Float64Array;
   /** Unit normal per receiver; required for `directions: 'normal'`. */
@@ -87,21 +87,6 @@ export interface SurfaceViewsInput {
   patchCount: number;
   /** Samples per receiver direction, a perfect square (default 1024). */
   samplesPerDirection?: number | undefined;
-  ground?: GroundPlaneInput | null | undefined;
-  /** Generator seed (default random.ts DEFAULT_SEED). */
-  seed?: number | undefined;
-  /** Origin offset along the normal [m] (default 1e-3; 'normal' mode). */
-  normalOffsetM?: number | undefined;
-  /** Nearest accepted hit [m] (default 1e-4). */
-  tMinM?: number | undefined;
-  /** Optional random stream per receiver (default: the receiver's index). */
-  streamIndex?: Uint32Array | undefined;
-  /** Optional tree crowns seen as semi-transparent volumes (with `crownExtinctionPerM`). */
-  crowns?: CrownSet | undefined;
-  /** Extinction per crown [1/m] (crowns.count values). */
-  crownExtinctionPerM?: Float64Array | undefined;
-  /** Trace with the batch kernel (float32 rays; may differ slightly from the default path). */
-  batchRays?: boolean | undefined;
 }
 
 export interface SurfaceViewsResult {
